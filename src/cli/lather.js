@@ -3,4 +3,5 @@
 import { register } from 'tsx/esm/api';
 
 register();
-await import('./main.ts');
+const { main } = await import('./main.ts');
+await main(process.argv);
