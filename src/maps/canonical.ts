@@ -8,7 +8,8 @@
 // number is the order of the automorphism group and a start of the other orientation among them
 // means a reflection is a symmetry.
 
-import { type CubicMap, next, prev } from './cubic-map.ts';
+import { type CubicMap } from './cubic-map.ts';
+import { slabCopyInt32 } from '../slab.ts';
 
 /** The result of a canonical labelling search. */
 export interface CanonicalForm {
@@ -30,6 +31,7 @@ interface Scratch {
   best: Int32Array;
   trial: Int32Array;
   starts: Int32Array;
+  candidates: Int32Array;
 }
 
 let scratch: Scratch | null = null;
@@ -44,6 +46,7 @@ function scratchFor(m: number): Scratch {
       best: new Int32Array(m),
       trial: new Int32Array(m),
       starts: new Int32Array(2 * m),
+      candidates: new Int32Array(2 * m),
     };
   }
   return scratch;
@@ -72,7 +75,7 @@ function labelFrom(
   for (let r = 0; r < 3; r++) {
     labels[d] = fresh;
     order[fresh++] = d;
-    d = orientation === 1 ? next(d) : prev(d);
+    d = orientation === 1 ? (d % 3 === 2 ? d - 2 : d + 1) : d % 3 === 0 ? d + 2 : d - 1;
   }
   let state = haveBest ? 0 : -1;
   for (let i = 0; i < m; i++) {
@@ -83,7 +86,7 @@ function labelFrom(
       for (let r = 0; r < 3; r++) {
         labels[u] = fresh;
         order[fresh++] = u;
-        u = orientation === 1 ? next(u) : prev(u);
+        u = orientation === 1 ? (u % 3 === 2 ? u - 2 : u + 1) : u % 3 === 0 ? u + 2 : u - 1;
       }
     }
     const value = labels[t];
@@ -99,68 +102,101 @@ function labelFrom(
 /**
  * Canonical form over the starts accepted by `allow(dart, orientation)` (all starts when omitted).
  * The start set must be invariant under every automorphism for the result to be canonical.
- * The returned arrays are fresh copies.
+ * `twins` is a CubicMap's twins array. The returned arrays are fresh copies.
  */
 export function canonicalForm(
-  map: CubicMap,
+  twins: Int32Array,
   allow?: (dart: number, orientation: number) => boolean,
 ): CanonicalForm {
-  const twins = map.twins;
   const m = twins.length;
   if (m === 0) {
     return { code: new Int32Array(0), starts: new Int32Array(0), order: 2, reflective: true };
   }
+  const candidates = scratchFor(m).candidates;
+  let k = 0;
+  for (let e = 0; e < m; e++) {
+    if (allow === undefined || allow(e, 1)) candidates[k++] = 2 * e;
+    if (allow === undefined || allow(e, -1)) candidates[k++] = 2 * e + 1;
+  }
+  return canonicalFromStarts(twins, candidates, k);
+}
+
+/**
+ * Canonical form over the first `count` encoded starts of `candidates` (dart * 2 + mirror bit),
+ * a set invariant under every automorphism.
+ */
+export function canonicalFromStarts(twins: Int32Array, candidates: Int32Array, count: number): CanonicalForm {
+  const m = twins.length;
   const s = scratchFor(m);
   const { labels, order, best, trial, starts } = s;
-  let count = 0;
+  let found = 0;
   let haveBest = false;
-  for (let e = 0; e < m; e++) {
-    for (let o = 1; o >= -1; o -= 2) {
-      if (allow !== undefined && !allow(e, o)) continue;
-      const c = labelFrom(twins, e, o, labels, order, best, trial, haveBest);
-      if (c < 0) {
-        best.set(trial.subarray(0, m));
-        haveBest = true;
-        count = 0;
-        starts[count++] = e * 2 + (o === 1 ? 0 : 1);
-      } else if (c === 0) {
-        starts[count++] = e * 2 + (o === 1 ? 0 : 1);
-      }
+  for (let k = 0; k < count; k++) {
+    const start = candidates[k];
+    const c = labelFrom(twins, start >> 1, (start & 1) === 0 ? 1 : -1, labels, order, best, trial, haveBest);
+    if (c < 0) {
+      best.set(trial.subarray(0, m));
+      haveBest = true;
+      found = 0;
+      starts[found++] = start;
+    } else if (c === 0) {
+      starts[found++] = start;
     }
   }
   let reflective = false;
   const first = starts[0] & 1;
-  for (let i = 1; i < count; i++) if ((starts[i] & 1) !== first) reflective = true;
-  return { code: best.slice(0, m), starts: starts.slice(0, count), order: count, reflective };
+  for (let i = 1; i < found; i++) if ((starts[i] & 1) !== first) reflective = true;
+  return { code: slabCopyInt32(best.subarray(0, m)), starts: slabCopyInt32(starts.subarray(0, found)), order: found, reflective };
 }
 
 /**
  * The dart relabelling of one start: result[label] = dart. Two smallest starts s1, s2 give the
  * automorphism dart order1[j] -> order2[j].
  */
-export function labellingOrder(map: CubicMap, start: number): Int32Array {
-  const m = map.twins.length;
+export function labellingOrder(twins: Int32Array, start: number): Int32Array {
+  const m = twins.length;
   const labels = new Int32Array(m);
   const order = new Int32Array(m);
   const trial = new Int32Array(m);
-  labelFrom(map.twins, start >> 1, (start & 1) === 0 ? 1 : -1, labels, order, trial, trial, false);
+  labelFrom(twins, start >> 1, (start & 1) === 0 ? 1 : -1, labels, order, trial, trial, false);
   return order;
 }
 
-/** Starts of a cluster: darts whose face (as seen in that orientation) is face `outer`. */
-export function clusterStartFilter(map: CubicMap, outer: number): (dart: number, orientation: number) => boolean {
-  const faceOf = map.faceOf;
-  // in the mirror image the face on the left of e is the face on its right, the face of prev(e)
-  return (e, o) => (o === 1 ? faceOf[e] : faceOf[prev(e)]) === outer;
-}
-
 /**
- * Canonical form of the cluster (map, outer face). In the canonical labelling the outside is the face
- * of dart 0, so the code alone determines the cluster.
+ * Canonical form of the cluster (map, outer face). Starts are the darts along the outside in either
+ * orientation, narrowed to those with the smallest key (side count of the cell across the start
+ * wall, then of the cell at the start junction's third sector), which automorphisms preserve. In the
+ * canonical labelling the outside is the face of dart 0, so the code alone determines the cluster.
  */
 export function canonicalCluster(map: CubicMap, outer: number): CanonicalForm {
-  if (map.twins.length === 0) {
+  const m = map.twins.length;
+  if (m === 0) {
     return { code: new Int32Array(0), starts: new Int32Array(0), order: 1, reflective: true };
   }
-  return canonicalForm(map, clusterStartFilter(map, outer));
+  const { faceOf, faceStarts, faceDarts } = map;
+  const candidates = scratchFor(m).candidates;
+  const lo = faceStarts[outer];
+  const hi = faceStarts[outer + 1];
+  // dart d along the outside starts orientation +1; in the mirror image the start is next(d), whose
+  // right-hand face is the outside. Key: side count across the start wall, then of the third sector.
+  let best = Infinity;
+  for (let i = lo; i < hi; i++) {
+    const d = faceDarts[i];
+    const a = sizeOf(faceStarts, faceOf[d % 3 === 0 ? d + 2 : d - 1]);
+    const b = sizeOf(faceStarts, faceOf[d % 3 === 2 ? d - 2 : d + 1]);
+    best = Math.min(best, a * m + b, b * m + a);
+  }
+  let k = 0;
+  for (let i = lo; i < hi; i++) {
+    const d = faceDarts[i];
+    const a = sizeOf(faceStarts, faceOf[d % 3 === 0 ? d + 2 : d - 1]);
+    const b = sizeOf(faceStarts, faceOf[d % 3 === 2 ? d - 2 : d + 1]);
+    if (a * m + b === best) candidates[k++] = 2 * d;
+    if (b * m + a === best) candidates[k++] = 2 * (d % 3 === 2 ? d - 2 : d + 1) + 1;
+  }
+  return canonicalFromStarts(map.twins, candidates, k);
+}
+
+function sizeOf(faceStarts: Int32Array, f: number): number {
+  return faceStarts[f + 1] - faceStarts[f];
 }

@@ -18,6 +18,7 @@
 //        next(e) is counter-clockwise from e, so face(e) is the sector e..next(e)
 
 import { MapError } from '../errors.ts';
+import { slabInt32 } from '../slab.ts';
 
 /** Next dart counter-clockwise around the same junction. */
 export function next(e: number): number {
@@ -53,24 +54,19 @@ export class CubicMap {
   readonly faceDarts: Int32Array;
 
   /**
-   * Wrap a twins array. Checks only that it is a fixed-point-free involution on 3V darts with no
-   * wall from a junction to itself; use validateMap for the full admissibility check.
+   * Wrap a twins array. Checks only that it is a fixed-point-free involution on 3V darts (skipped when
+   * `trusted`, for arrays made by this library); use validateCluster for the full admissibility check.
    * @throws MapError when twins is not an involution on its darts.
    */
-  constructor(twins: Int32Array) {
+  constructor(twins: Int32Array, trusted = false) {
     const m = twins.length;
-    if (m % 3 !== 0) throw new MapError(`Map has ${m} darts when expected a multiple of 3.`);
-    for (let e = 0; e < m; e++) {
-      const t = twins[e];
-      if (!(t >= 0 && t < m) || twins[t] !== e || t === e) {
-        throw new MapError(`Dart ${e} has twin ${t} when expected an involution without fixed points.`);
-      }
-    }
+    if (!trusted) checkInvolution(twins);
     this.twins = twins;
     this.junctionCount = m / 3;
-    const faceOf = new Int32Array(m).fill(-1);
-    const faceDarts = new Int32Array(m);
-    const starts: number[] = [0];
+    const faceOf = slabInt32(m).fill(-1);
+    const faceDarts = slabInt32(m);
+    // NOTE: a map has at most m faces (each owns a dart), plus two for the circle's special case
+    const starts = slabInt32(m + 3);
     let f = 0;
     let k = 0;
     for (let e0 = 0; e0 < m; e0++) {
@@ -80,19 +76,16 @@ export class CubicMap {
       do {
         faceOf[e] = f;
         faceDarts[k++] = e;
-        e = prev(twins[e]);
+        const t = twins[e];
+        e = t % 3 === 0 ? t + 2 : t - 1;
       } while (e !== e0);
-      f++;
-      starts.push(k);
+      starts[++f] = k;
     }
     // Is this the circle (no junctions)? It has an inside and an outside.
-    if (m === 0) {
-      f = 2;
-      starts.push(0, 0);
-    }
+    if (m === 0) f = 2;
     this.faceOf = faceOf;
     this.faceCount = f;
-    this.faceStarts = Int32Array.from(starts);
+    this.faceStarts = starts.subarray(0, f + 1);
     this.faceDarts = faceDarts;
   }
 
@@ -136,6 +129,18 @@ export class CubicMap {
       }
     }
     return walls;
+  }
+}
+
+/** @throws MapError when twins is not a fixed-point-free involution on a multiple of 3 darts. */
+function checkInvolution(twins: Int32Array): void {
+  const m = twins.length;
+  if (m % 3 !== 0) throw new MapError(`Map has ${m} darts when expected a multiple of 3.`);
+  for (let e = 0; e < m; e++) {
+    const t = twins[e];
+    if (!(t >= 0 && t < m) || twins[t] !== e || t === e) {
+      throw new MapError(`Dart ${e} has twin ${t} when expected an involution without fixed points.`);
+    }
   }
 }
 

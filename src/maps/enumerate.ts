@@ -77,19 +77,32 @@ function facesInto(twins: Int32Array, m: number, faceOf: Int32Array, faceSize: I
     do {
       faceOf[e] = f;
       size++;
-      e = prev(twins[e]);
+      const t = twins[e];
+      e = t % 3 === 0 ? t + 2 : t - 1; // prev(twin(e)), inlined: imported calls are slow under tsx
     } while (e !== e0);
     faceSize[f++] = size;
   }
   return f;
 }
 
+/** Invariant of the wall of dart e (faces it separates, then faces at its ends), from face sizes. */
+function wallKey(w: ChildWork, e: number, t: number): number {
+  const { faceOf, faceSize } = w;
+  const S = w.m; // face sizes are below the dart count
+  const sa = faceSize[faceOf[e]];
+  const sb = faceSize[faceOf[t]];
+  const ea = faceSize[faceOf[e % 3 === 2 ? e - 2 : e + 1]];
+  const eb = faceSize[faceOf[t % 3 === 2 ? t - 2 : t + 1]];
+  return ((Math.min(sa, sb) * S + Math.max(sa, sb)) * S + Math.min(ea, eb)) * S + Math.max(ea, eb);
+}
+
 /**
- * Write into w.keys the invariant of every dart's wall when it is deletable, else +Infinity; return
- * the smallest key. Keys are equal on both darts of a wall.
+ * Whether the wall of dart `d` is deletable with the smallest invariant among deletable walls. When it
+ * is, w.keys holds every dart's wall invariant (+Infinity for walls that are not deletable) and the
+ * return value is that smallest invariant; otherwise -1 (returned as soon as a smaller one is seen).
  */
-function deletableKeysInto(w: ChildWork): number {
-  const { m, twins, faceOf, faceSize, pairCount, keys, faces } = w;
+function smallestDeletableKey(w: ChildWork, d: number): number {
+  const { m, twins, faceOf, pairCount, keys, faces } = w;
   const K = faces + 1;
   pairCount.fill(0, 0, K * K);
   for (let e = 0; e < m; e++) {
@@ -101,26 +114,22 @@ function deletableKeysInto(w: ChildWork): number {
       if (a !== b) pairCount[b * K + a]++;
     }
   }
-  const S = m; // face sizes are below the dart count
-  let best = Infinity;
+  const dt = twins[d];
+  if (pairCount[faceOf[d] * K + faceOf[dt]] !== 1) return -1;
+  const own = wallKey(w, d, dt);
   for (let e = 0; e < m; e++) {
     const t = twins[e];
     if (e > t) continue;
-    const a = faceOf[e];
-    const b = faceOf[t];
     let key = Infinity;
-    if (a !== b && pairCount[a * K + b] === 1) {
-      const sa = faceSize[a];
-      const sb = faceSize[b];
-      const ea = faceSize[faceOf[next(e)]];
-      const eb = faceSize[faceOf[next(t)]];
-      key = ((Math.min(sa, sb) * S + Math.max(sa, sb)) * S + Math.min(ea, eb)) * S + Math.max(ea, eb);
-      if (key < best) best = key;
+    if (pairCount[faceOf[e] * K + faceOf[t]] === 1) {
+      key = wallKey(w, e, t);
+      // Is a smaller deletable wall here? Then the new wall is not canonical.
+      if (key < own) return -1;
     }
     keys[e] = key;
     keys[t] = key;
   }
-  return best;
+  return own;
 }
 
 /**
@@ -164,9 +173,9 @@ function insertInto(P: Int32Array, V: number, x: number, y: number, out: Int32Ar
  * Re-express the smallest starts in the canonical labelling itself: start (d, o) becomes
  * (label of d, o relative to the first start's orientation), so the first start is (0, +1).
  */
-function inCanonicalLabels(map: CubicMap, form: CanonicalForm): CanonicalForm {
+function inCanonicalLabels(twins: Int32Array, form: CanonicalForm): CanonicalForm {
   if (form.order === 1) return { ...form, starts: Int32Array.of(0) };
-  const order0 = labellingOrder(map, form.starts[0]);
+  const order0 = labellingOrder(twins, form.starts[0]);
   const labels = new Int32Array(order0.length);
   for (let j = 0; j < order0.length; j++) labels[order0[j]] = j;
   const flip0 = form.starts[0] & 1;
@@ -202,11 +211,10 @@ function childrenOf(parent: CubicMap, work: ChildWork): Accepted[] {
         const y = parent.faceDarts[j];
         insertInto(P, V, x, y, twins);
         facesInto(twins, m, faceOf, faceSize);
-        const best = deletableKeysInto(work);
         // Is the new wall outside the canonical class? Then another parent owns this child.
-        if (keys[newDart] !== best) continue;
-        const child = new CubicMap(twins.slice(0, m));
-        const form = canonicalForm(child, (e) => keys[e] === best);
+        const best = smallestDeletableKey(work, newDart);
+        if (best < 0) continue;
+        const form = canonicalForm(twins.subarray(0, m), (e) => keys[e] === best);
         let inOrbit = false;
         for (let k = 0; k < form.starts.length; k++) {
           const d = form.starts[k] >> 1;
@@ -216,7 +224,7 @@ function childrenOf(parent: CubicMap, work: ChildWork): Accepted[] {
         const key = form.code.join(',');
         if (seen.has(key)) continue;
         seen.add(key);
-        out.push({ form: inCanonicalLabels(child, form), map: new CubicMap(form.code) });
+        out.push({ form: inCanonicalLabels(twins.subarray(0, m), form), map: new CubicMap(form.code, true) });
       }
     }
   }
@@ -236,7 +244,7 @@ function describe(acc: Accepted): EnumeratedMap {
     const faceOf = map.faceOf;
     for (let k = 0; k < form.starts.length; k++) {
       // the automorphism sends dart j (its own label) to order[j]; a reflection swaps left and right
-      const order = labellingOrder(map, form.starts[k]);
+      const order = labellingOrder(map.twins, form.starts[k]);
       const reflection = (form.starts[k] & 1) === 1;
       for (let f = 0; f < F; f++) {
         const d = map.faceDarts[map.faceStarts[f]];
@@ -309,8 +317,8 @@ export function* enumerateMaps(cells: number, options: EnumerateOptions = {}): G
     return;
   }
   const theta = thetaMap();
-  const thetaForm = canonicalForm(theta);
-  const root: Accepted = { form: inCanonicalLabels(theta, thetaForm), map: new CubicMap(thetaForm.code) };
+  const thetaForm = canonicalForm(theta.twins);
+  const root: Accepted = { form: inCanonicalLabels(theta.twins, thetaForm), map: new CubicMap(thetaForm.code, true) };
   const split = shardLevel(cells);
   let splitIndex = 0;
   if (cells === 2) {

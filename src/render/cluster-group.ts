@@ -1,0 +1,150 @@
+// render stage: one cluster as an SVG group in its own coordinates (world units, y flipped to point down).
+
+import type { ClusterDrawing } from './types.ts';
+import { cellCountOf } from './types.ts';
+import { SvgPath, circlePath, wallTo } from './path.ts';
+import { labelPoint } from './cell-shape.ts';
+import { CELL_FILLS, INK, cellFill } from './palette.ts';
+import { escapeXml, fixed, formatValue } from './format.ts';
+import { junctionOf } from '../maps/cubic-map.ts';
+
+/** How a cluster is styled; shared by the single drawing, the contact sheet and the plots' thumbnails. */
+export interface ClusterStyle {
+  /** Label each cell with its number and area. @default true */
+  readonly labels?: boolean;
+  /** Add each cell's pressure to its label, when the drawing has pressures. @default false */
+  readonly pressures?: boolean;
+  /** Mark every junction with a dot. @default false */
+  readonly junctions?: boolean;
+  /** Wall stroke width in screen pixels, whatever the scale (non-scaling stroke). @default 1.5 */
+  readonly strokeWidthPx?: number;
+  /** Radius of junction dots in screen pixels. @default 2.5 */
+  readonly junctionRadiusPx?: number;
+  /** Largest label font size in screen pixels; labels shrink to fit small cells. @default 12 */
+  readonly fontSizePx?: number;
+  /** Cell fills, cell i takes palette[(i - 1) % length]. @default CELL_FILLS */
+  readonly palette?: readonly string[];
+  /** Significant digits of areas and pressures in labels. @default 4 */
+  readonly labelDigits?: number;
+}
+
+/** Smallest label font size in screen pixels before the label falls back to the cell number alone. */
+const MIN_FULL_LABEL_PX = 7;
+/** Smallest font size in screen pixels of a number-only label. */
+const MIN_LABEL_PX = 5;
+/** Label line height in em. */
+const LINE_HEIGHT = 1.2;
+
+/**
+ * Write `drawing` as an SVG `<g>` whose user units are the drawing's units with y pointing down
+ * (the point (x, y) of the drawing is at (x, -y)). Paths carry the drawing's own coordinates inside
+ * a `scale(1 -1)` group, so the arc flags of path.ts apply as computed; labels and dots are placed
+ * outside it so text stays upright. `pxPerUnit` is the screen scale the group will be shown at (it
+ * sizes text and dots), `digits` the decimals of every coordinate. Assumes checkDrawing passed.
+ */
+export function renderClusterGroup(drawing: ClusterDrawing, pxPerUnit: number, digits: number, style: ClusterStyle = {}): string {
+  const { map, coords, bulges, areas, pressures } = drawing;
+  const palette = style.palette ?? CELL_FILLS;
+  const n = (v: number): string => fixed(v, digits);
+  const strokeWidth = style.strokeWidthPx ?? 1.5;
+  const cells = cellCountOf(drawing);
+  const out: string[] = ['<g class="cluster">', '<g transform="scale(1 -1)">'];
+  const wallStyle = `fill="none" stroke="${INK}" stroke-width="${fixed(strokeWidth, 2)}" stroke-linejoin="round" stroke-linecap="round" vector-effect="non-scaling-stroke"`;
+  const labels: { x: number; y: number; clearance: number }[] = [];
+
+  if (map.twins.length === 0) {
+    // Is it the circle? One cell of area areas[0] about the origin, no junctions.
+    const r = Math.sqrt(areas[0] / Math.PI);
+    const path = new SvgPath(digits);
+    circlePath(path, 0, 0, r);
+    out.push(`<path class="cell" data-cell="1" fill="${cellFill(1, palette)}" d="${path}"/>`);
+    out.push(`<path class="walls" ${wallStyle} d="${path}"/>`);
+    labels.push({ x: 0, y: 0, clearance: r });
+  } else {
+    const walls = map.wallIndex();
+    // cells: walk each face with faceNext, each wall in the dart's own direction
+    for (let f = 1; f <= cells; f++) {
+      const path = new SvgPath(digits);
+      const first = map.faceDarts[map.faceStarts[f]];
+      const a0 = junctionOf(first);
+      path.moveTo(coords[2 * a0], coords[2 * a0 + 1]);
+      let e = first;
+      do {
+        const a = junctionOf(e);
+        const b = map.headOf(e);
+        const t = e < map.twins[e] ? bulges[walls[e]] : -bulges[walls[e]];
+        wallTo(path, coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], t);
+        e = map.faceNext(e);
+      } while (e !== first);
+      path.closePath();
+      out.push(`<path class="cell" data-cell="${f}" fill="${cellFill(f, palette)}" d="${path}"/>`);
+      labels.push(labelPoint(drawing, walls, f));
+    }
+    // walls: each once, along its lower dart
+    const path = new SvgPath(digits);
+    for (let e = 0; e < map.twins.length; e++) {
+      if (e > map.twins[e]) continue;
+      const a = junctionOf(e);
+      const b = map.headOf(e);
+      path.moveTo(coords[2 * a], coords[2 * a + 1]);
+      wallTo(path, coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[walls[e]]);
+    }
+    out.push(`<path class="walls" ${wallStyle} d="${path}"/>`);
+  }
+  out.push('</g>');
+
+  if (style.junctions === true && map.junctionCount > 0) {
+    const r = n((style.junctionRadiusPx ?? 2.5) / pxPerUnit);
+    out.push(`<g class="junctions" fill="${INK}">`);
+    for (let v = 0; v < map.junctionCount; v++) {
+      out.push(`<circle cx="${n(coords[2 * v])}" cy="${n(-coords[2 * v + 1])}" r="${r}"/>`);
+    }
+    out.push('</g>');
+  }
+
+  if (style.labels ?? true) {
+    const fontPx = style.fontSizePx ?? 12;
+    const significant = style.labelDigits ?? 4;
+    out.push(`<g class="labels" font-family="sans-serif" text-anchor="middle" fill="${INK}">`);
+    for (let i = 0; i < cells; i++) {
+      const lines = [String(i + 1), `A = ${formatValue(areas[i], significant)}`];
+      if (style.pressures === true && pressures !== undefined) lines.push(`p = ${formatValue(pressures[i], significant)}`);
+      out.push(labelSvg(lines, labels[i], fontPx, pxPerUnit, n));
+    }
+    out.push('</g>');
+  }
+  out.push('</g>');
+  return out.join('\n');
+}
+
+/**
+ * A centred block of label lines at a cell's label point, the font shrunk so the block fits in the
+ * point's clearance (half-width about 0.3 em per character, half-height 0.6 em per line), and
+ * reduced to the cell number alone when even that would be under MIN_FULL_LABEL_PX.
+ */
+function labelSvg(
+  lines: string[],
+  at: { x: number; y: number; clearance: number },
+  fontPx: number,
+  pxPerUnit: number,
+  n: (v: number) => string,
+): string {
+  const clearancePx = at.clearance * pxPerUnit;
+  const fit = (rows: string[]): number => {
+    const widest = Math.max(...rows.map((row) => row.length));
+    return clearancePx / Math.max(0.6 * LINE_HEIGHT * rows.length, 0.3 * widest);
+  };
+  let rows = lines;
+  let px = Math.min(fontPx, fit(rows));
+  if (px < MIN_FULL_LABEL_PX) {
+    rows = lines.slice(0, 1);
+    px = Math.max(MIN_LABEL_PX, Math.min(fontPx, fit(rows)));
+  }
+  const size = px / pxPerUnit;
+  const top = -at.y - ((rows.length - 1) * LINE_HEIGHT * size) / 2 + 0.35 * size;
+  const parts = rows.map((row, k) => {
+    const weight = k === 0 ? ' font-weight="bold"' : '';
+    return `<text x="${n(at.x)}" y="${n(top + k * LINE_HEIGHT * size)}" font-size="${n(size)}"${weight}>${escapeXml(row)}</text>`;
+  });
+  return parts.join('\n');
+}

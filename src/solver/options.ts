@@ -1,0 +1,85 @@
+// solver stage: the relaxer's options with their defaults, resolved and checked once per call.
+
+/** Options of relax() and relaxFrom(). Lengths are in units of sqrt(mean target cell area). */
+export interface NewtonOptions {
+  /**
+   * Newton iterations allowed for one solve (each continuation step is one solve).
+   * @default 60
+   */
+  maxIterations?: number;
+  /**
+   * Convergence: largest |entry| of the residual in normalised units (mean cell area 1).
+   * @default 1e-12
+   */
+  tolerance?: number;
+  /**
+   * Largest certificate entry (relative area residual, tangent sum, scaled Laplace-Young residual)
+   * an 'ok' answer may have.
+   * @default 1e-10
+   */
+  certificateTolerance?: number;
+  /**
+   * Equal steps of the area continuation tried first when a direct solve fails; a failed step is halved.
+   * @default 4
+   */
+  continuationSteps?: number;
+  /**
+   * Most continuation solves (successful or not) in one call before giving up.
+   * @default 40
+   */
+  maxContinuationSolves?: number;
+  /**
+   * Wall chord, relative to sqrt(mean cell area), below which a wall counts as collapsing.
+   * @default 1e-3
+   */
+  collapseLength?: number;
+  /**
+   * Relative size below which a pivot eigenvalue of the KKT matrix counts as a zero mode.
+   * @default 1e-8
+   */
+  zeroTolerance?: number;
+  /**
+   * Largest change of any bulge in one Newton step, in radians.
+   * @default 0.5
+   */
+  maxBulgeStep?: number;
+  /**
+   * Largest move of any junction in one Newton step, in units of sqrt(mean cell area).
+   * @default 0.25
+   */
+  maxMoveStep?: number;
+}
+
+/** NewtonOptions with every field present. */
+export type ResolvedNewtonOptions = Required<NewtonOptions>;
+
+const DEFAULTS: ResolvedNewtonOptions = {
+  maxIterations: 60,
+  tolerance: 1e-12,
+  certificateTolerance: 1e-10,
+  continuationSteps: 4,
+  maxContinuationSolves: 40,
+  collapseLength: 1e-3,
+  zeroTolerance: 1e-8,
+  maxBulgeStep: 0.5,
+  maxMoveStep: 0.25,
+};
+
+/**
+ * Fill in defaults and check ranges.
+ * @throws RangeError when an option is not a finite number in its range.
+ */
+export function resolveOptions(options: NewtonOptions = {}): ResolvedNewtonOptions {
+  const out = { ...DEFAULTS };
+  for (const key of Object.keys(DEFAULTS) as (keyof NewtonOptions)[]) {
+    const value = options[key];
+    if (value === undefined) continue;
+    const integer = key === 'maxIterations' || key === 'continuationSteps' || key === 'maxContinuationSolves';
+    if (typeof value !== 'number' || !Number.isFinite(value) || !(value > 0) || (integer && !Number.isInteger(value))) {
+      const want = integer ? 'a positive integer' : 'a positive finite number';
+      throw new RangeError(`Option ${key} is ${String(value)} when expected ${want}.`);
+    }
+    out[key] = value;
+  }
+  return out;
+}

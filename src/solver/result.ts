@@ -1,0 +1,56 @@
+// solver stage: the plain-object answer of the relaxer, with its certificate and stability.
+
+import type { Certificate } from './certificate.ts';
+
+/**
+ * How a relaxation ended.
+ * - 'ok': a certified equilibrium (every certificate entry within tolerance, a valid drawing).
+ * - 'wall-collapse': a wall shrinks to zero length on the way to the targets (the arrangement wants a
+ *   T1 neighbour swap there); `collapsingWall` names it.
+ * - 'cell-collapse': every wall of one cell shrinks together (the cell pinches off as a round bubble
+ *   touching the rest at a point); `collapsingCell` names it.
+ * - 'walls-cross': the equations are solved but two walls cross or the walls at a junction are out of
+ *   the map's order, so the solution is not a drawing of this arrangement.
+ * - 'no-convergence': Newton's method and the area continuation both stalled with no collapse in sight.
+ */
+export type EquilibriumStatus = 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'no-convergence';
+
+/**
+ * An answer of relax()/relaxFrom(). Every number is finite. Geometry is in the caller's units; for a
+ * failure it is the last state reached (a valid-looking drawing near where the solve gave up).
+ * Walls are numbered by map.wallIndex(); wall k runs along its lower dart e (e < twins[e]) from
+ * junctionOf(e) to headOf(e) and its bulge is positive into face map.faceOf[e] (its left).
+ */
+export interface Equilibrium {
+  /** How the relaxation ended. */
+  status: EquilibriumStatus;
+  /** Sum of all wall lengths (the circle: 2 sqrt(pi A)). */
+  perimeter: number;
+  /** Pressure of cell i + 1 at index i (outside pressure 0); the Lagrange multipliers of the areas. */
+  pressures: Float64Array;
+  /** Junction coordinates, coords[2v], coords[2v + 1]; empty for the circle. */
+  coords: Float64Array;
+  /** Bulge of each wall in (-pi, pi); empty for the circle. */
+  bulges: Float64Array;
+  /** Signed curvature 2 sin t / c of each wall (positive: bulging left of its lower dart); empty for the circle. */
+  curvatures: Float64Array;
+  /** Achieved area of cell i + 1 at index i. */
+  areas: Float64Array;
+  /** Newton iterations used in all solves together. */
+  iterations: number;
+  /** Area continuation solves used (0 when the direct solve succeeded). */
+  continuationSolves: number;
+  /** The independent check of this answer (checkEquilibrium). */
+  certificate: Certificate;
+  /**
+   * Stability index: negative directions of the second variation on the area constraints' tangent
+   * space less the rigid motions (0 = stable in its arrangement); null unless status is 'ok'.
+   */
+  index: number | null;
+  /** Zero modes of the second variation (e.g. a lens sliding along its wall); null unless status is 'ok'. */
+  zeroModes: number | null;
+  /** For 'wall-collapse', the collapsing wall's index; otherwise null. */
+  collapsingWall: number | null;
+  /** For 'cell-collapse', the collapsing cell's number (1..n); otherwise null. */
+  collapsingCell: number | null;
+}
