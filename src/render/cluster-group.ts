@@ -36,16 +36,36 @@ const MIN_LABEL_PX = 5;
 const LINE_HEIGHT = 1.2;
 
 /**
- * Write `drawing` as an SVG `<g>` whose user units are the drawing's units with y pointing down
- * (the point (x, y) of the drawing is at (x, -y)). Paths carry the drawing's own coordinates inside
- * a `scale(1 -1)` group, so the arc flags of path.ts apply as computed; labels and dots are placed
- * outside it so text stays upright. `pxPerUnit` is the screen scale the group will be shown at (it
- * sizes text and dots), `digits` the decimals of every coordinate. Assumes checkDrawing passed.
+ * Where a cluster group goes: drawing units are scaled by `pxPerUnit` about the drawing point
+ * (originX, originY), which lands on the group's (0, 0).
  */
-export function renderClusterGroup(drawing: ClusterDrawing, pxPerUnit: number, digits: number, style: ClusterStyle = {}): string {
-  const { map, coords, bulges, areas, pressures } = drawing;
+export interface Placement {
+  readonly pxPerUnit: number;
+  readonly originX: number;
+  readonly originY: number;
+}
+
+/**
+ * Write `drawing` as an SVG `<g>` in pixel units: the drawing point (x, y) is at
+ * (pxPerUnit (x - originX), -pxPerUnit (y - originY)), y pointing down as on screen. Paths are
+ * written with y up inside a `scale(1 -1)` group, so the arc flags of path.ts apply as computed
+ * (a uniform flip leaves stroke widths alone); labels and dots sit outside it so text stays
+ * upright. Stroke widths and font sizes are pixels at that scale, and the stroke stays that wide
+ * when the picture is zoomed (non-scaling stroke). `digits` are the decimals of every coordinate.
+ * Assumes checkDrawing passed.
+ */
+export function renderClusterGroup(drawing: ClusterDrawing, placement: Placement, digits: number, style: ClusterStyle = {}): string {
+  const { map, bulges, areas, pressures } = drawing;
+  const { pxPerUnit, originX, originY } = placement;
   const palette = style.palette ?? CELL_FILLS;
   const n = (v: number): string => fixed(v, digits);
+  // junction positions in pixels, y still up
+  const coords = new Float64Array(drawing.coords.length);
+  for (let v = 0; v < coords.length; v += 2) {
+    coords[v] = pxPerUnit * (drawing.coords[v] - originX);
+    coords[v + 1] = pxPerUnit * (drawing.coords[v + 1] - originY);
+  }
+  const scaled: ClusterDrawing = { ...drawing, coords };
   const strokeWidth = style.strokeWidthPx ?? 1.5;
   const cells = cellCountOf(drawing);
   const out: string[] = ['<g class="cluster">', '<g transform="scale(1 -1)">'];
@@ -54,12 +74,12 @@ export function renderClusterGroup(drawing: ClusterDrawing, pxPerUnit: number, d
 
   if (map.twins.length === 0) {
     // Is it the circle? One cell of area areas[0] about the origin, no junctions.
-    const r = Math.sqrt(areas[0] / Math.PI);
+    const r = pxPerUnit * Math.sqrt(areas[0] / Math.PI);
     const path = new SvgPath(digits);
-    circlePath(path, 0, 0, r);
+    circlePath(path, -pxPerUnit * originX, -pxPerUnit * originY, r);
     out.push(`<path class="cell" data-cell="1" fill="${cellFill(1, palette)}" d="${path}"/>`);
     out.push(`<path class="walls" ${wallStyle} d="${path}"/>`);
-    labels.push({ x: 0, y: 0, clearance: r });
+    labels.push({ x: -pxPerUnit * originX, y: -pxPerUnit * originY, clearance: r });
   } else {
     const walls = map.wallIndex();
     // cells: walk each face with faceNext, each wall in the dart's own direction
@@ -78,7 +98,7 @@ export function renderClusterGroup(drawing: ClusterDrawing, pxPerUnit: number, d
       } while (e !== first);
       path.closePath();
       out.push(`<path class="cell" data-cell="${f}" fill="${cellFill(f, palette)}" d="${path}"/>`);
-      labels.push(labelPoint(drawing, walls, f));
+      labels.push(labelPoint(scaled, walls, f));
     }
     // walls: each once, along its lower dart
     const path = new SvgPath(digits);
@@ -94,7 +114,7 @@ export function renderClusterGroup(drawing: ClusterDrawing, pxPerUnit: number, d
   out.push('</g>');
 
   if (style.junctions === true && map.junctionCount > 0) {
-    const r = n((style.junctionRadiusPx ?? 2.5) / pxPerUnit);
+    const r = n(style.junctionRadiusPx ?? 2.5);
     out.push(`<g class="junctions" fill="${INK}">`);
     for (let v = 0; v < map.junctionCount; v++) {
       out.push(`<circle cx="${n(coords[2 * v])}" cy="${n(-coords[2 * v + 1])}" r="${r}"/>`);
@@ -109,7 +129,7 @@ export function renderClusterGroup(drawing: ClusterDrawing, pxPerUnit: number, d
     for (let i = 0; i < cells; i++) {
       const lines = [String(i + 1), `A = ${formatValue(areas[i], significant)}`];
       if (style.pressures === true && pressures !== undefined) lines.push(`p = ${formatValue(pressures[i], significant)}`);
-      out.push(labelSvg(lines, labels[i], fontPx, pxPerUnit, n));
+      out.push(labelSvg(lines, labels[i], fontPx, n));
     }
     out.push('</g>');
   }
@@ -126,10 +146,9 @@ function labelSvg(
   lines: string[],
   at: { x: number; y: number; clearance: number },
   fontPx: number,
-  pxPerUnit: number,
   n: (v: number) => string,
 ): string {
-  const clearancePx = at.clearance * pxPerUnit;
+  const clearancePx = at.clearance;
   const fit = (rows: string[]): number => {
     const widest = Math.max(...rows.map((row) => row.length));
     return clearancePx / Math.max(0.6 * LINE_HEIGHT * rows.length, 0.3 * widest);
@@ -140,7 +159,7 @@ function labelSvg(
     rows = lines.slice(0, 1);
     px = Math.max(MIN_LABEL_PX, Math.min(fontPx, fit(rows)));
   }
-  const size = px / pxPerUnit;
+  const size = px;
   const top = -at.y - ((rows.length - 1) * LINE_HEIGHT * size) / 2 + 0.35 * size;
   const parts = rows.map((row, k) => {
     const weight = k === 0 ? ' font-weight="bold"' : '';

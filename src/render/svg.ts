@@ -10,7 +10,7 @@ import { checkDigits, escapeXml, fixed } from './format.ts';
 
 /** Options of renderClusterSvg. */
 export interface ClusterSvgOptions extends ClusterStyle {
-  /** Size in pixels of the longer side of the drawing itself (margins and heading excluded). @default 360 */
+  /** Size in pixels of the longer side of the drawing itself (margins and headings excluded). @default 360 */
   readonly sizePx?: number;
   /** Margin around the drawing in pixels. @default 16 */
   readonly marginPx?: number;
@@ -20,21 +20,17 @@ export interface ClusterSvgOptions extends ClusterStyle {
   readonly headings?: boolean;
   /** Heading font size in pixels. @default 14 */
   readonly headingSizePx?: number;
-  /** Decimals of coordinates; by default enough for 1/20 pixel at the drawing's scale, at least 3. */
+  /** Decimals of every coordinate (pixel units). @default 2 */
   readonly digits?: number;
-}
-
-/** Decimals that resolve 1/20 of a pixel at `pxPerUnit`, between 3 and 12. */
-export function digitsForScale(pxPerUnit: number): number {
-  return Math.min(12, Math.max(3, Math.ceil(Math.log10(20 * pxPerUnit))));
 }
 
 /**
  * Draw one cluster as an SVG document: every cell filled and labelled (number, area, optionally its
  * pressure), every wall an exact arc (path 'A' commands; straight walls 'L'), optional junction dots.
- * User units are the drawing's units (y flipped), the view box is the exact extent of the walls
- * plus margins, and the stroke width is in screen pixels (non-scaling stroke), so the picture
- * scales freely. Same input, same bytes.
+ * The longer side of the drawing is `sizePx` pixels; the view box is the exact extent of the walls
+ * (arc bounding boxes, not just the junctions) plus margins and headings, centred on the extent's
+ * centre; walls keep their pixel width when the picture is zoomed (non-scaling stroke).
+ * Same input, same bytes.
  * @throws UsageError or RangeError when the drawing is malformed (see checkDrawing) or an option is out of range.
  */
 export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOptions = {}): string {
@@ -43,13 +39,13 @@ export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOpt
   const marginPx = options.marginPx ?? 16;
   if (!(sizePx > 0 && Number.isFinite(sizePx))) throw new RangeError(`Size is ${sizePx} px when expected a positive number.`);
   if (!(marginPx >= 0 && Number.isFinite(marginPx))) throw new RangeError(`Margin is ${marginPx} px when expected a non-negative number.`);
-  const box = drawingBounds(drawing);
-  const w = box[2] - box[0];
-  const h = box[3] - box[1];
-  const extent = Math.max(w, h);
-  const s = extent > 0 ? sizePx / extent : 1;
-  const digits = options.digits === undefined ? digitsForScale(s) : checkDigits(options.digits);
+  const digits = checkDigits(options.digits ?? 2);
   const n = (v: number): string => fixed(v, digits);
+  const box = drawingBounds(drawing);
+  const extent = Math.max(box[2] - box[0], box[3] - box[1]);
+  const s = extent > 0 ? sizePx / extent : 1;
+  const w = s * (box[2] - box[0]);
+  const h = s * (box[3] - box[1]);
 
   const headings = options.headings ?? true;
   const headingPx = options.headingSizePx ?? 14;
@@ -58,26 +54,26 @@ export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOpt
   const titlePx = title === undefined ? 0 : 1.6 * headingPx;
   const captionPx = caption === undefined ? 0 : 1.6 * headingPx;
 
-  // view box in user units: x as drawn, y flipped (top edge at -maxY)
-  const x0 = box[0] - marginPx / s;
-  const y0 = -box[3] - (marginPx + titlePx) / s;
-  const vw = w + (2 * marginPx) / s;
-  const vh = h + (2 * marginPx + titlePx + captionPx) / s;
+  // view box: the drawing's extent centred on (0, 0), then margins and heading strips
+  const x0 = -w / 2 - marginPx;
+  const y0 = -h / 2 - marginPx - titlePx;
+  const vw = w + 2 * marginPx;
+  const vh = h + 2 * marginPx + titlePx + captionPx;
   const out: string[] = [
-    `<svg xmlns="http://www.w3.org/2000/svg" width="${fixed(vw * s, 2)}" height="${fixed(vh * s, 2)}" viewBox="${n(x0)} ${n(y0)} ${n(vw)} ${n(vh)}">`,
+    `<svg xmlns="http://www.w3.org/2000/svg" width="${n(vw)}" height="${n(vh)}" viewBox="${n(x0)} ${n(y0)} ${n(vw)} ${n(vh)}">`,
   ];
   if (drawing.title !== undefined) out.push(`<title>${escapeXml(drawing.title)}</title>`);
   if (options.background !== null) {
     out.push(`<rect x="${n(x0)}" y="${n(y0)}" width="${n(vw)}" height="${n(vh)}" fill="${options.background ?? '#ffffff'}"/>`);
   }
-  out.push(renderClusterGroup(drawing, s, digits, options));
-  const cx = 0.5 * (box[0] + box[2]);
-  const font = `font-family="sans-serif" text-anchor="middle" fill="${INK}" font-size="${n(headingPx / s)}"`;
+  const placement = { pxPerUnit: s, originX: 0.5 * (box[0] + box[2]), originY: 0.5 * (box[1] + box[3]) };
+  out.push(renderClusterGroup(drawing, placement, digits, options));
+  const font = `font-family="sans-serif" text-anchor="middle" fill="${INK}" font-size="${n(headingPx)}"`;
   if (title !== undefined) {
-    out.push(`<text class="title" x="${n(cx)}" y="${n(y0 + (marginPx + 0.8 * titlePx) / s)}" ${font} font-weight="bold">${escapeXml(title)}</text>`);
+    out.push(`<text class="title" x="0" y="${n(y0 + marginPx + 0.75 * titlePx)}" ${font} font-weight="bold">${escapeXml(title)}</text>`);
   }
   if (caption !== undefined) {
-    out.push(`<text class="caption" x="${n(cx)}" y="${n(-box[1] + (0.5 * marginPx + 0.8 * captionPx) / s)}" ${font}>${escapeXml(caption)}</text>`);
+    out.push(`<text class="caption" x="0" y="${n(h / 2 + 0.5 * marginPx + 0.75 * captionPx)}" ${font}>${escapeXml(caption)}</text>`);
   }
   out.push('</svg>');
   return `${out.join('\n')}\n`;
