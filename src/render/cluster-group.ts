@@ -3,7 +3,7 @@
 import type { ClusterDrawing } from './types.ts';
 import { cellCountOf } from './types.ts';
 import { SvgPath, circlePath, wallTo } from './path.ts';
-import { labelPoint } from './cell-shape.ts';
+import { drawingBounds, labelPoint } from './cell-shape.ts';
 import { CELL_FILLS, INK, cellFill } from './palette.ts';
 import { escapeXml, fixed, formatValue } from './format.ts';
 import { junctionOf } from '../maps/cubic-map.ts';
@@ -43,6 +43,17 @@ export interface Placement {
   readonly pxPerUnit: number;
   readonly originX: number;
   readonly originY: number;
+}
+
+/** The scale in pixels per unit that fits a box [minX, minY, maxX, maxY] into a `sizePx` square (1 for an empty box). */
+export function fitScale(box: Float64Array, sizePx: number): number {
+  const extent = Math.max(box[2] - box[0], box[3] - box[1]);
+  return extent > 0 ? sizePx / extent : 1;
+}
+
+/** A placement at `pxPerUnit` that puts the centre of a box [minX, minY, maxX, maxY] at the group's (0, 0). */
+export function centredPlacement(box: Float64Array, pxPerUnit: number): Placement {
+  return { pxPerUnit, originX: 0.5 * (box[0] + box[2]), originY: 0.5 * (box[1] + box[3]) };
 }
 
 /**
@@ -166,4 +177,15 @@ function labelSvg(
     return `<text x="${n(at.x)}" y="${n(top + k * LINE_HEIGHT * size)}" font-size="${n(size)}"${weight}>${escapeXml(row)}</text>`;
   });
   return parts.join('\n');
+}
+
+/**
+ * A small unlabelled drawing fitted into a `sizePx` square centred at (cx, cy) of the caller's pixel
+ * space: a `<g>` with its own translate transform around renderClusterGroup. Assumes checkDrawing passed.
+ */
+export function renderThumbnail(drawing: ClusterDrawing, cx: number, cy: number, sizePx: number, digits: number): string {
+  const box = drawingBounds(drawing);
+  const placement = centredPlacement(box, fitScale(box, sizePx));
+  const style: ClusterStyle = { labels: false, strokeWidthPx: 1 };
+  return `<g class="thumbnail" transform="translate(${fixed(cx, digits)} ${fixed(cy, digits)})">\n${renderClusterGroup(drawing, placement, digits, style)}\n</g>`;
 }

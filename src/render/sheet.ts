@@ -3,7 +3,7 @@
 import type { ClusterDrawing } from './types.ts';
 import { checkDrawing } from './types.ts';
 import type { ClusterStyle } from './cluster-group.ts';
-import { renderClusterGroup } from './cluster-group.ts';
+import { centredPlacement, fitScale, renderClusterGroup } from './cluster-group.ts';
 import { drawingBounds } from './cell-shape.ts';
 import { INK } from './palette.ts';
 import { checkDigits, escapeXml, fixed, formatValue } from './format.ts';
@@ -91,10 +91,7 @@ export function renderContactSheet(items: readonly SheetItem[], options: Contact
   // scales: each drawing's extent fitted into the tile, then the smallest one for all when common
   const boxes = items.map((item) => drawingBounds(item.drawing));
   const inner = tilePx - 2 * TILE_PAD;
-  const fits = boxes.map((box) => {
-    const extent = Math.max(box[2] - box[0], box[3] - box[1]);
-    return extent > 0 ? inner / extent : 1;
-  });
+  const fits = boxes.map((box) => fitScale(box, inner));
   const common = Math.min(...fits);
   const captions = items.map((item) => captionLines(item, perimeterDigits));
   const captionRows = Math.max(...captions.map((lines) => lines.length));
@@ -116,9 +113,7 @@ export function renderContactSheet(items: readonly SheetItem[], options: Contact
   items.forEach((item, i) => {
     const left = gap + (i % columns) * cellW;
     const top = gap + titleH + Math.floor(i / columns) * cellH;
-    const box = boxes[i];
-    const scale = (options.commonScale ?? true) ? common : fits[i];
-    const placement = { pxPerUnit: scale, originX: 0.5 * (box[0] + box[2]), originY: 0.5 * (box[1] + box[3]) };
+    const placement = centredPlacement(boxes[i], (options.commonScale ?? true) ? common : fits[i]);
     out.push(`<g class="tile" data-index="${i}">`);
     out.push(`<rect x="${n(left)}" y="${n(top)}" width="${n(tilePx)}" height="${n(tilePx + captionH)}" rx="4" fill="none" stroke="#d0d0d0"/>`);
     out.push(`<g transform="translate(${n(left + tilePx / 2)} ${n(top + tilePx / 2)})">`);

@@ -3,7 +3,7 @@
 import type { ClusterDrawing } from './types.ts';
 import { checkDrawing } from './types.ts';
 import type { ClusterStyle } from './cluster-group.ts';
-import { renderClusterGroup } from './cluster-group.ts';
+import { centredPlacement, fitScale, renderClusterGroup } from './cluster-group.ts';
 import { drawingBounds } from './cell-shape.ts';
 import { INK } from './palette.ts';
 import { checkDigits, escapeXml, fixed } from './format.ts';
@@ -42,8 +42,7 @@ export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOpt
   const digits = checkDigits(options.digits ?? 2);
   const n = (v: number): string => fixed(v, digits);
   const box = drawingBounds(drawing);
-  const extent = Math.max(box[2] - box[0], box[3] - box[1]);
-  const s = extent > 0 ? sizePx / extent : 1;
+  const s = fitScale(box, sizePx);
   const w = s * (box[2] - box[0]);
   const h = s * (box[3] - box[1]);
 
@@ -66,8 +65,7 @@ export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOpt
   if (options.background !== null) {
     out.push(`<rect x="${n(x0)}" y="${n(y0)}" width="${n(vw)}" height="${n(vh)}" fill="${options.background ?? '#ffffff'}"/>`);
   }
-  const placement = { pxPerUnit: s, originX: 0.5 * (box[0] + box[2]), originY: 0.5 * (box[1] + box[3]) };
-  out.push(renderClusterGroup(drawing, placement, digits, options));
+  out.push(renderClusterGroup(drawing, centredPlacement(box, s), digits, options));
   const font = `font-family="sans-serif" text-anchor="middle" fill="${INK}" font-size="${n(headingPx)}"`;
   if (title !== undefined) {
     out.push(`<text class="title" x="0" y="${n(y0 + marginPx + 0.75 * titlePx)}" ${font} font-weight="bold">${escapeXml(title)}</text>`);

@@ -3,7 +3,7 @@
 // Nothing here calls the residual code: every wall is rebuilt as a circle (centre, radius) or a
 // segment, tangents are taken perpendicular to the radius, segment areas as sector minus triangle,
 // and the cells are walked through map.faceDarts. The certificate's entries are dimensionless:
-// areas relative to each cell's target, curvatures times sqrt(mean target area).
+// areas relative to each cell's target, curvatures relative to |pressure difference| + 1/sqrt(mean area).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
 
@@ -13,7 +13,10 @@ export interface Certificate {
   areaResidual: number;
   /** Largest |sum of the three unit tangents| over the junctions (Plateau's 120-degree law). */
   tangentResidual: number;
-  /** Largest |curvature - pressure difference| over the walls, times sqrt(mean target area) (Laplace-Young). */
+  /**
+   * Largest |curvature - pressure difference| / (|pressure difference| + 1/sqrt(mean target area)) over
+   * the walls (Laplace-Young law, relative to the wall's own curvature scale).
+   */
   curvatureResidual: number;
   /** Shortest wall (arc length). */
   minWallLength: number;
@@ -69,7 +72,7 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
     return finite({
       areaResidual: 0,
       tangentResidual: 0,
-      curvatureResidual: Math.abs(1 / radius - p) * unit,
+      curvatureResidual: Math.abs(1 / radius - p) / (Math.abs(p) + 1 / unit),
       minWallLength: 2 * Math.PI * radius,
       minCellArea: areas[0],
       crossings: 0,
@@ -110,7 +113,7 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
     const fl = map.faceOf[e];
     const fr = map.faceOf[twins[e]];
     const jump = (fr > 0 ? pressures[fr - 1] : 0) - (fl > 0 ? pressures[fl - 1] : 0);
-    curvatureResidual = Math.max(curvatureResidual, Math.abs(curvature - jump) * unit);
+    curvatureResidual = Math.max(curvatureResidual, Math.abs(curvature - jump) / (Math.abs(jump) + 1 / unit));
   }
 
   // unit tangents at each junction, away from it, and their order

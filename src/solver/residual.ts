@@ -103,8 +103,10 @@ export function cellAreasInto(problem: ClusterProblem, z: Float64Array, areas: F
 }
 
 /**
- * Write the residual (gradient of the Lagrangian) at z for normalised targets into out[0..size);
- * returns its largest absolute entry (Infinity when a value is not finite).
+ * Write the residual (gradient of the Lagrangian) at z for normalised targets into out[0..size).
+ * Returns the largest scaled entry (Infinity when a value is not finite): junction rows as they are
+ * (at Laplace-Young balance they are the sums of unit tangents), bulge rows as the relative
+ * Laplace-Young error |kappa - (p_r - p_l)| / (1 + |p_l - p_r|), area rows relative to the target.
  */
 export function residualInto(
   problem: ClusterProblem, z: Float64Array, targets: Float64Array, out: Float64Array,
@@ -114,6 +116,7 @@ export function residualInto(
   const p0 = t0 + walls;
   out.fill(0, 0, size);
   for (let f = 0; f < cells; f++) out[p0 + f] = targets[f];
+  let worst = 0;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
@@ -138,17 +141,25 @@ export function residualInto(
     out[a + 1] += -gc * dy - pressure * (-0.5 * bx + 2 * h * dy);
     out[b] += gc * dx - pressure * (-0.5 * ay - 2 * h * dx);
     out[b + 1] += gc * dy - pressure * (0.5 * ax - 2 * h * dy);
-    out[t0 + k] += c * FACTORS[G1] + pressure * c2 * FACTORS[H1];
+    const rt = c * FACTORS[G1] + pressure * c2 * FACTORS[H1];
+    out[t0 + k] = rt;
+    // dphi/dt = c^2 h' (kappa - (p_r - p_l)): its scaled form is the relative Laplace-Young error
+    const ly = Math.abs(rt) / (c2 * FACTORS[H1] * (1 + Math.abs(pressure)));
+    if (!(ly <= worst)) worst = Number.isNaN(ly) ? Infinity : ly;
     const q = 0.5 * (ax * by - ay * bx) - c2 * h;
     if (l >= 0) out[p0 + l] -= q;
     if (r >= 0) out[p0 + r] += q;
   }
-  let norm = 0;
-  for (let i = 0; i < size; i++) {
+  // tangent balance rows as they are, area rows relative to their targets
+  for (let i = 0; i < t0; i++) {
     const v = Math.abs(out[i]);
-    if (!(v <= norm)) norm = Number.isNaN(v) ? Infinity : v;
+    if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
   }
-  return norm;
+  for (let f = 0; f < cells; f++) {
+    const v = Math.abs(out[p0 + f]) / targets[f];
+    if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
+  }
+  return worst;
 }
 
 const LOCAL = new Float64Array(25);
