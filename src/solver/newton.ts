@@ -32,8 +32,11 @@ export interface EquilibriumStart {
   pressures: Float64Array;
 }
 
-// Largest regularisation added to the geometry block of K.
+// Largest and smallest regularisation added to the geometry block of K. The floor keeps K + mu I
+// conditioned at a zero mode (an error of eps/mu along it costs (eps/mu)^2 in the residual) and slows
+// the other directions only by a factor mu / |eigenvalue|.
 const MU_MAX = 1e-3;
+const MU_MIN = 1e-9;
 // Smallest LU pivot ratio accepted before the regularisation is raised.
 const PIVOT_RATIO = 1e-15;
 // Backtracking halvings per Newton step.
@@ -126,7 +129,7 @@ function solve(problem: ClusterProblem, ws: Workspace, targets: Float64Array, op
     }
     iterations++;
     // factor K + mu I (geometry block), raising mu when K is numerically singular
-    let mu = Math.min(MU_MAX, worst);
+    let mu = Math.min(MU_MAX, Math.max(MU_MIN, worst));
     let factored = false;
     for (let attempt = 0; attempt < 4 && !factored; attempt++, mu *= 100) {
       jacobianInto(problem, z, jac);
@@ -155,7 +158,9 @@ function solve(problem: ClusterProblem, ws: Workspace, targets: Float64Array, op
     // backtrack until the residual's 2-norm falls enough
     let alpha = scale;
     let accepted = false;
-    for (let ls = 0; ls < LINE_SEARCH; ls++, alpha *= 0.5) {
+    // Is the residual already at the rounding floor? Then only a full step may still help.
+    const tries = worst <= FLOOR ? 1 : LINE_SEARCH;
+    for (let ls = 0; ls < tries; ls++, alpha *= 0.5) {
       let inside = true;
       for (let i = 0; i < size; i++) trial[i] = z[i] + alpha * step[i];
       for (let k = 0; k < walls; k++) if (!(Math.abs(trial[t0 + k]) < BULGE_LIMIT)) inside = false;
