@@ -45,6 +45,14 @@ const LINE_SEARCH = 30;
 const BULGE_LIMIT = Math.PI - 1e-6;
 // A stalled solve whose residual is this small is at the rounding floor: accept it for certification.
 const FLOOR = 1e-10;
+// Convergence of an intermediate continuation solve (plain largest residual entry).
+const PATH_TOLERANCE = 1e-8;
+// Stall test: every STALL_WINDOW iterations the residual's 2-norm must have fallen below STALL_RATIO
+// times its value STALL_WINDOW iterations before.
+const STALL_WINDOW = 6;
+const STALL_RATIO = 0.9;
+// A cell pinches off when all its walls are below this many collapse lengths while one collapses.
+const COLLAPSE_SPREAD = 10;
 // Smallest continuation step (fraction of the path) before the continuation gives up.
 const MIN_CONTINUATION_STEP = 1 / 512;
 
@@ -54,6 +62,7 @@ interface Workspace {
   trial: Float64Array;
   saved: Float64Array;
   initial: Float64Array;
+  offset: Float64Array;
   r: Float64Array;
   rTrial: Float64Array;
   step: Float64Array;
@@ -77,6 +86,7 @@ function workspaceFor(problem: ClusterProblem): Workspace {
       trial: new Float64Array(size),
       saved: new Float64Array(size),
       initial: new Float64Array(size),
+      offset: new Float64Array(size),
       r: new Float64Array(size),
       rTrial: new Float64Array(size),
       step: new Float64Array(order),
@@ -92,8 +102,8 @@ function workspaceFor(problem: ClusterProblem): Workspace {
   return ws;
 }
 
-/** Why one Newton solve stopped. */
-type SolveEnd = 'converged' | 'stalled' | 'max-iterations' | 'non-finite';
+/** Why one Newton solve stopped ('collapse': a wall's chord fell below the collapse length). */
+type SolveEnd = 'converged' | 'stalled' | 'max-iterations' | 'non-finite' | 'collapse';
 
 interface SolveReport {
   end: SolveEnd;
@@ -106,26 +116,65 @@ function norm2(v: Float64Array, n: number): number {
   return Math.sqrt(s);
 }
 
-// Newton's method from ws.z towards the normalised targets; ws.z holds the last accepted state.
-function solve(problem: ClusterProblem, ws: Workspace, targets: Float64Array, opt: ResolvedNewtonOptions): SolveReport {
+// Residual of the homotopy at z: the KKT residual less `weight` times the start's residual on the
+// geometry rows (weight 0: the true residual). Returns the convergence measure: residualInto's scaled
+// maximum for weight 0, the plain maximum otherwise.
+function homotopyInto(
+  problem: ClusterProblem, z: Float64Array, targets: Float64Array, offset: Float64Array, weight: number,
+  out: Float64Array,
+): number {
+  const worst = residualInto(problem, z, targets, out);
+  if (weight === 0) return worst;
+  const geometry = 2 * problem.junctions + problem.walls;
+  let m = 0;
+  for (let i = 0; i < geometry; i++) {
+    out[i] -= weight * offset[i];
+    const a = Math.abs(out[i]);
+    if (!(a <= m)) m = Number.isNaN(a) ? Infinity : a;
+  }
+  for (let i = geometry; i < problem.size; i++) {
+    const a = Math.abs(out[i]);
+    if (!(a <= m)) m = Number.isNaN(a) ? Infinity : a;
+  }
+  return m;
+}
+
+// Newton's method from ws.z towards the normalised targets (with the homotopy offset times `weight`
+// on the geometry rows); ws.z holds the last accepted state.
+function solve(
+  problem: ClusterProblem, ws: Workspace, targets: Float64Array, weight: number, opt: ResolvedNewtonOptions,
+): SolveReport {
   const { size, order, junctions, walls } = problem;
   const geometry = 2 * junctions + walls;
   const t0 = 2 * junctions;
+  const tolerance = weight === 0 ? opt.tolerance : PATH_TOLERANCE;
   let { z, trial, r, rTrial } = ws;
-  const { step, jac, pivots } = ws;
-  let worst = residualInto(problem, z, targets, r);
+  const { step, jac, pivots, offset } = ws;
+  let worst = homotopyInto(problem, z, targets, offset, weight, r);
   let merit = norm2(r, size);
   let iterations = 0;
   let end: SolveEnd = 'max-iterations';
+  let before = Infinity; // merit STALL_WINDOW iterations ago
   while (iterations < opt.maxIterations) {
-    if (process.env.LATHER_DEBUG) console.log("it", iterations, worst, merit);
     if (!Number.isFinite(merit)) {
       end = 'non-finite';
       break;
     }
-    if (worst <= opt.tolerance) {
+    if (worst <= tolerance) {
       end = 'converged';
       break;
+    }
+    if (shortestWall(problem, z, targets).chord < opt.collapseLength) {
+      end = 'collapse';
+      break;
+    }
+    if (iterations % STALL_WINDOW === 0) {
+      // Has the residual barely moved over the last few iterations? Newton has stalled.
+      if (merit > STALL_RATIO * before) {
+        end = 'stalled';
+        break;
+      }
+      before = merit;
     }
     iterations++;
     // factor K + mu I (geometry block), raising mu when K is numerically singular
@@ -165,7 +214,7 @@ function solve(problem: ClusterProblem, ws: Workspace, targets: Float64Array, op
       for (let i = 0; i < size; i++) trial[i] = z[i] + alpha * step[i];
       for (let k = 0; k < walls; k++) if (!(Math.abs(trial[t0 + k]) < BULGE_LIMIT)) inside = false;
       if (!inside) continue;
-      const trialWorst = residualInto(problem, trial, targets, rTrial);
+      const trialWorst = homotopyInto(problem, trial, targets, offset, weight, rTrial);
       const trialMerit = norm2(rTrial, size);
       if (trialMerit <= (1 - 1e-4 * alpha) * merit) {
         accepted = true;
@@ -174,7 +223,6 @@ function solve(problem: ClusterProblem, ws: Workspace, targets: Float64Array, op
         break;
       }
     }
-    if (process.env.LATHER_DEBUG) console.log("  alpha", alpha, accepted, scale);
     if (!accepted) {
       end = worst <= FLOOR ? 'converged' : 'stalled';
       break;
@@ -186,7 +234,7 @@ function solve(problem: ClusterProblem, ws: Workspace, targets: Float64Array, op
     r = rTrial;
     rTrial = rs;
   }
-  if (end === 'max-iterations' && worst <= opt.tolerance) end = 'converged';
+  if (end === 'max-iterations' && worst <= tolerance) end = 'converged';
   // keep the accepted state in ws.z whichever buffer it ended in
   if (z !== ws.z) {
     ws.z.set(z);
@@ -258,15 +306,19 @@ function ordersHold(problem: ClusterProblem, z: Float64Array): boolean {
   return true;
 }
 
-// The wall of smallest chord relative to the unit length, and its chord.
-function shortestWall(problem: ClusterProblem, z: Float64Array): { wall: number; chord: number } {
-  const { walls, starts, ends } = problem;
+// The wall of smallest chord relative to its size scale, sqrt of the smaller target area of the
+// cells on its two sides, and that relative chord.
+function shortestWall(problem: ClusterProblem, z: Float64Array, targets: Float64Array): { wall: number; chord: number } {
+  const { walls, starts, ends, lefts, rights } = problem;
   let wall = 0;
   let chord = Infinity;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
+    const l = lefts[k];
+    const r = rights[k];
+    const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
+    const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) / Math.sqrt(area);
     if (c < chord) {
       chord = c;
       wall = k;
@@ -275,18 +327,19 @@ function shortestWall(problem: ClusterProblem, z: Float64Array): { wall: number;
   return { wall, chord };
 }
 
-// A cell all of whose walls are shorter than the collapse length, as a cell number, or 0.
-function pinchedCell(problem: ClusterProblem, z: Float64Array, limit: number): number {
+// A cell all of whose walls are shorter than `limit` times sqrt(its target area), as a cell number, or 0.
+function pinchedCell(problem: ClusterProblem, z: Float64Array, targets: Float64Array, limit: number): number {
   const { walls, starts, ends, lefts, rights, cells } = problem;
   for (let f = 0; f < cells; f++) {
     let all = true;
     let any = false;
+    const scale = limit * Math.sqrt(targets[f]);
     for (let k = 0; k < walls && all; k++) {
       if (lefts[k] !== f && rights[k] !== f) continue;
       any = true;
       const a = 2 * starts[k];
       const b = 2 * ends[k];
-      if (Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) >= limit) all = false;
+      if (Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) >= scale) all = false;
     }
     if (any && all) return f + 1;
   }
@@ -299,13 +352,18 @@ interface Verdict {
   cell: number | null;
 }
 
-// Name the failure of a solve that did not converge to a valid drawing, from the state it reached.
-function failureOf(problem: ClusterProblem, z: Float64Array, opt: ResolvedNewtonOptions, converged: boolean): Verdict {
-  const cell = pinchedCell(problem, z, opt.collapseLength);
-  if (cell > 0) return { status: 'cell-collapse', wall: null, cell };
-  const { wall, chord } = shortestWall(problem, z);
-  if (chord < opt.collapseLength) return { status: 'wall-collapse', wall, cell: null };
-  if (converged) return { status: 'walls-cross', wall: null, cell: null };
+// Name the failure of a solve that did not end at a valid drawing, from the state it reached.
+function failureOf(
+  problem: ClusterProblem, z: Float64Array, targets: Float64Array, opt: ResolvedNewtonOptions, end: SolveEnd,
+): Verdict {
+  const { wall, chord } = shortestWall(problem, z, targets);
+  const collapsing = end === 'collapse' || chord < opt.collapseLength;
+  if (collapsing) {
+    const cell = pinchedCell(problem, z, targets, COLLAPSE_SPREAD * opt.collapseLength);
+    if (cell > 0) return { status: 'cell-collapse', wall: null, cell };
+    return { status: 'wall-collapse', wall, cell: null };
+  }
+  if (end === 'converged') return { status: 'walls-cross', wall: null, cell: null };
   return { status: 'no-convergence', wall: null, cell: null };
 }
 
@@ -316,50 +374,78 @@ interface Attempt {
   solves: number;
 }
 
+const OK: Verdict = { status: 'ok', wall: null, cell: null };
+
 // One solve to the targets from ws.z, judged: converged with every junction in order.
 function direct(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): Attempt {
-  const report = solve(problem, ws, ws.targets, opt);
-  const converged = report.end === 'converged';
-  const ok = converged && ordersHold(problem, ws.z);
-  const verdict = ok ? { status: 'ok' as const, wall: null, cell: null } : failureOf(problem, ws.z, opt, converged);
+  const report = solve(problem, ws, ws.targets, 0, opt);
+  const ok = report.end === 'converged' && ordersHold(problem, ws.z);
+  const verdict = ok ? OK : failureOf(problem, ws.z, ws.targets, opt, report.end);
   return { ok, verdict, iterations: report.iterations, solves: 1 };
 }
 
-// Continue in the areas from ws.startAreas to ws.targets, starting from ws.z (geometric interpolation).
-function continuation(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): Attempt {
+// Follow a path from ws.z (a solution at s = 0) to s = 1 by Newton-solved steps, halving a step that
+// fails and doubling after a success. Phase 'forces': at the start's own areas, the geometry rows
+// offset by (1 - s) times the start's residual (a Newton homotopy: the start solves it exactly at
+// s = 0). Phase 'areas': no offset, areas startAreas^(1-s) targets^s (the equilibrium branch).
+function follow(
+  problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, phase: 'forces' | 'areas', budget: number,
+): Attempt {
   const { cells, size } = problem;
   const { startAreas, targets, goal, saved } = ws;
+  if (phase === 'forces') residualInto(problem, ws.z, startAreas, ws.offset);
   let s = 0;
   let h = 1 / opt.continuationSteps;
   let iterations = 0;
   let solves = 0;
   let verdict: Verdict = { status: 'no-convergence', wall: null, cell: null };
-  // first settle at the start's own areas
-  let first = true;
   saved.set(ws.z.subarray(0, size));
-  while (solves < opt.maxContinuationSolves) {
-    const next = first ? 0 : Math.min(1, s + h);
-    for (let f = 0; f < cells; f++) goal[f] = startAreas[f] ** (1 - next) * targets[f] ** next;
-    const report = solve(problem, ws, goal, opt);
+  while (solves < budget) {
+    const next = Math.min(1, s + h);
+    if (phase === 'areas') {
+      for (let f = 0; f < cells; f++) goal[f] = startAreas[f] ** (1 - next) * targets[f] ** next;
+    }
+    const report = solve(
+      problem, ws, phase === 'areas' ? (next === 1 ? targets : goal) : startAreas,
+      phase === 'areas' ? 0 : 1 - next, opt,
+    );
     iterations += report.iterations;
     solves++;
-    const converged = report.end === 'converged';
-    if (converged && ordersHold(problem, ws.z)) {
+    if (report.end === 'converged' && ordersHold(problem, ws.z)) {
       saved.set(ws.z.subarray(0, size));
-      if (!first) s = next;
-      first = false;
-      if (s >= 1) return { ok: true, verdict: { status: 'ok', wall: null, cell: null }, iterations, solves };
+      s = next;
+      if (s >= 1) return { ok: true, verdict: OK, iterations, solves };
       h = Math.min(2 * h, 1 - s);
       continue;
     }
-    verdict = failureOf(problem, ws.z, opt, converged);
+    const aim = phase === 'areas' ? goal : startAreas;
+    verdict = failureOf(problem, ws.z, aim, opt, report.end);
     ws.z.set(saved.subarray(0, size));
-    if (first) break;
+    // Was the last good state already near the collapse? Then smaller steps only creep towards it.
+    const near = shortestWall(problem, ws.z, aim);
+    if (near.chord < COLLAPSE_SPREAD * opt.collapseLength) {
+      if (verdict.status === 'no-convergence') verdict = failureOf(problem, ws.z, aim, opt, 'collapse');
+      if (verdict.status === 'wall-collapse' || verdict.status === 'cell-collapse') break;
+    }
     h *= 0.5;
     if (h < MIN_CONTINUATION_STEP) break;
   }
-  // give up from the last good state, naming what went wrong at the first step that failed
+  // Did the area path stall with no collapse in sight? Its equilibrium branch folds back.
+  if (phase === 'areas' && verdict.status === 'no-convergence' && solves < budget) {
+    verdict = { status: 'fold', wall: null, cell: null };
+  }
+  // give up at the last good state, naming what went wrong at the last step that failed
   return { ok: false, verdict, iterations, solves };
+}
+
+// Continuation: first relax the start at its own areas (phase 'forces'), then follow its equilibrium
+// to the targets (phase 'areas').
+function continuation(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): Attempt {
+  const first = follow(problem, ws, opt, 'forces', opt.maxContinuationSolves);
+  if (!first.ok) return first;
+  cellAreasInto(problem, ws.z, ws.startAreas);
+  const second = follow(problem, ws, opt, 'areas', opt.maxContinuationSolves - first.solves);
+  return { ...second, iterations: first.iterations + second.iterations, solves: first.solves + second.solves };
 }
 
 // The answer for the circle (one cell): perimeter 2 sqrt(pi A), pressure 1/R (isoperimetric inequality).
@@ -485,7 +571,10 @@ function finish(
       const cont = continuation(problem, ws, opt);
       iterations += cont.iterations;
       continuationSolves = cont.solves;
-      attempt = cont.ok ? cont : { ...cont, verdict: cont.solves > 1 ? cont.verdict : attempt.verdict };
+      // the continuation's verdict names what happens on the way; keep the direct one only when the
+      // continuation found nothing more specific
+      if (cont.ok || cont.verdict.status !== 'no-convergence') attempt = cont;
+      else attempt = { ...cont, verdict: attempt.verdict };
     }
   }
   return answerOf(map, problem, ws, areas, unit, opt, attempt, iterations, continuationSolves);

@@ -11,9 +11,12 @@ import type { Certificate } from './certificate.ts';
  *   touching the rest at a point); `collapsingCell` names it.
  * - 'walls-cross': the equations are solved but two walls cross or the walls at a junction are out of
  *   the map's order, so the solution is not a drawing of this arrangement.
+ * - 'fold': the equilibrium, followed from an equilibrium at other areas by area continuation, turns
+ *   back before the target areas with no wall collapsing (a saddle-node: it meets another equilibrium
+ *   and both vanish), so the arrangement has no equilibrium on that branch at the targets.
  * - 'no-convergence': Newton's method and the area continuation both stalled with no collapse in sight.
  */
-export type EquilibriumStatus = 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'no-convergence';
+export type EquilibriumStatus = 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'fold' | 'no-convergence';
 
 /**
  * An answer of relax()/relaxFrom(). Every number is finite. Geometry is in the caller's units; for a
