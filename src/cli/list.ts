@@ -7,26 +7,10 @@ import { type ClusterSummary, summarizeCluster } from '../maps/describe.ts';
 import { adjacencyGraph, GRAPHML_HEAD, GRAPHML_TAIL, graphmlGraph } from '../maps/adjacency.ts';
 import { estimateClusterCount } from '../maps/estimate.ts';
 import { UsageError } from '../errors.ts';
+import { type ArrangementFilter, isFiltering, passesFilter } from '../catalogue/filter.ts';
 import { LIST_LIMIT, oneOf, parseCells, parseShard, wholeNumber } from './parse.ts';
 import { Output } from './output.ts';
 import { startProgress } from './progress.ts';
-
-/** Filters on arrangements shared by list and rank. */
-export interface ArrangementFilter {
-  threeConnected?: boolean;
-  lens?: boolean;
-  maxSides?: number;
-  minSides?: number;
-}
-
-/** Whether a summary passes the filters. */
-export function passesFilter(s: ClusterSummary, f: ArrangementFilter): boolean {
-  if (f.threeConnected && !s.threeConnected) return false;
-  if (f.lens === false && s.lenses > 0) return false;
-  if (f.maxSides !== undefined && s.sides.some((k) => k > f.maxSides!)) return false;
-  if (f.minSides !== undefined && s.sides.some((k) => k < f.minSides!)) return false;
-  return true;
-}
 
 /** Refuse big enumerations unless asked, with an estimate of count and time. */
 export function checkSize(cells: number, large: boolean | undefined, limit: number, verb: string): void {
@@ -146,7 +130,7 @@ function writeCounts(
   shard: { index: number; count: number } | undefined,
   filter: ArrangementFilter,
 ): void {
-  const filtered = filter.threeConnected || filter.lens === false || filter.maxSides !== undefined || filter.minSides !== undefined;
+  const filtered = isFiltering(filter);
   if (cells === 1) {
     output.line('cells 1: 1 map, 1 arrangement (the circle); the rooting identities start at 2 cells');
     return;

@@ -3,6 +3,8 @@
 import { Command, CommanderError, InvalidArgumentError } from 'commander';
 import { CatalogueFormatError, FormulaError, MapError, UsageError } from '../errors.ts';
 import { addListCommand } from './list.ts';
+import { addRankCommand } from './rank.ts';
+import { addShowCommand } from './show.ts';
 
 /** Build the commander program with every verb attached. */
 export function buildProgram(): Command {
@@ -13,6 +15,8 @@ export function buildProgram(): Command {
     .exitOverride()
     .configureOutput({ writeErr: (text) => process.stderr.write(text) });
   addListCommand(program);
+  addRankCommand(program);
+  addShowCommand(program);
   for (const command of program.commands) command.exitOverride();
   return program;
 }

@@ -1,0 +1,156 @@
+// catalogue stage: relax every candidate assignment of one cluster (or search among them).
+//
+// This is the unit of work a worker thread receives; its result depends only on the task, so a ranking
+// is the same with one worker or many. Within a cluster a candidate starts from the previous certified
+// answer when there is one (warm start), else from the barycentric drawing.
+
+import { clusterFromCode, cellPermutations } from '../maps/cluster.ts';
+import { t1Swap } from '../maps/t1.ts';
+import { relax, relaxFrom } from '../solver/newton.ts';
+import type { NewtonOptions } from '../solver/options.ts';
+import type { Equilibrium } from '../solver/result.ts';
+import { type AreaClasses, areasOf, orbitAssignments, orbitRepresentative } from './assign.ts';
+
+/** One cluster's share of a ranking. */
+export interface ClusterTask {
+  /** Canonical code of the cluster. */
+  code: string;
+  /** The area classes of the query. */
+  classes: AreaClasses;
+  /** 'all': every orbit representative; 'search': at most `cap` candidates by local search. */
+  mode: 'all' | 'search';
+  /** Most candidates tried in 'search' mode. */
+  cap: number;
+  /** Seed of the search's random starts. */
+  seed: number;
+  /** Whether to start each candidate from the previous certified one. @default true */
+  warmStart?: boolean;
+  /** Options passed to the relaxer. */
+  newton?: NewtonOptions;
+}
+
+/** One relaxed candidate, as plain data (it crosses thread boundaries). */
+export interface CandidateResult {
+  code: string;
+  /** Area class of each cell (cell i + 1 at index i). */
+  assignment: number[];
+  equilibrium: Equilibrium;
+  /** For a wall collapse: the code of the arrangement the T1 swap of that wall leads to, if admissible. */
+  becomes: string | null;
+}
+
+/** Relax the candidates of one cluster task, in a deterministic order. */
+export function evaluateCluster(task: ClusterTask): CandidateResult[] {
+  const cluster = clusterFromCode(task.code);
+  const group = cellPermutations(cluster);
+  const warm = task.warmStart !== false;
+  const out: CandidateResult[] = [];
+  let previous: Equilibrium | null = null;
+  const solve = (s: Int32Array, from: Equilibrium | null): CandidateResult => {
+    const areas = areasOf(s, task.classes);
+    const eq = from !== null && warm ? relaxFrom(cluster.map, areas, from, task.newton) : relax(cluster.map, areas, task.newton);
+    let becomes: string | null = null;
+    if (eq.status === 'wall-collapse' && eq.collapsingWall !== null) {
+      const swapped = t1Swap(cluster, lowerDartOfWall(cluster.map.twins, eq.collapsingWall));
+      becomes = swapped === null ? null : swapped.code;
+    }
+    const result = { code: task.code, assignment: [...s], equilibrium: eq, becomes };
+    out.push(result);
+    return result;
+  };
+  if (task.mode === 'all') {
+    for (const s of orbitAssignments(task.classes, group)) {
+      const r = solve(s, previous);
+      if (r.equilibrium.status === 'ok') previous = r.equilibrium;
+    }
+    return out;
+  }
+  searchCluster(task, cluster.map.faceCount - 1, group, (s, from) => solve(s, from), cluster.map, out);
+  return out;
+}
+
+/** Dart of wall k in map.wallIndex() numbering: the k-th dart e (ascending) with e < twins[e]. */
+export function lowerDartOfWall(twins: Int32Array, k: number): number {
+  let seen = 0;
+  for (let e = 0; e < twins.length; e++) {
+    if (e < twins[e]) {
+      if (seen === k) return e;
+      seen++;
+    }
+  }
+  return -1;
+}
+
+/**
+ * Local search over assignments: starts from the placement with larger areas on cells with more sides,
+ * then from seeded random placements; from each, exchange the areas of two cells and keep an exchange
+ * that lowers the perimeter (first improvement, re-relaxing from the current geometry), until no
+ * exchange helps or `cap` candidates have been tried.
+ */
+function searchCluster(
+  task: ClusterTask,
+  n: number,
+  group: Int32Array[],
+  solve: (s: Int32Array, from: Equilibrium | null) => CandidateResult,
+  map: { faceSize(f: number): number },
+  out: CandidateResult[],
+): void {
+  const seen = new Set<string>();
+  const rng = mulberry32(task.seed);
+  const base: number[] = [];
+  task.classes.multiplicity.forEach((m, k) => {
+    for (let i = 0; i < m; i++) base.push(k);
+  });
+  // sensible start: cells by side count, most sides first, get the classes from the largest area down
+  const bySides = [...Array(n).keys()].sort((a, b) => map.faceSize(b + 1) - map.faceSize(a + 1) || a - b);
+  const sensible = new Int32Array(n);
+  bySides.forEach((cell, i) => (sensible[cell] = base[i]));
+  const starts: Int32Array[] = [sensible];
+  for (let r = 0; r < 2; r++) {
+    const shuffled = [...base];
+    for (let i = n - 1; i > 0; i--) {
+      const j = Math.floor(rng() * (i + 1));
+      [shuffled[i], shuffled[j]] = [shuffled[j], shuffled[i]];
+    }
+    starts.push(Int32Array.from(shuffled));
+  }
+  const tryOne = (s: Int32Array, from: Equilibrium | null): CandidateResult | null => {
+    if (out.length >= task.cap) return null;
+    const key = orbitRepresentative(s, group).join(',');
+    if (seen.has(key)) return null;
+    seen.add(key);
+    return solve(Int32Array.from(s), from);
+  };
+  for (const start of starts) {
+    let current = tryOne(start, null);
+    if (current === null || current.equilibrium.status !== 'ok') continue;
+    let improved = true;
+    while (improved && out.length < task.cap) {
+      improved = false;
+      const s = Int32Array.from(current.assignment);
+      for (let i = 0; i < n && !improved; i++) {
+        for (let j = i + 1; j < n && !improved; j++) {
+          if (s[i] === s[j]) continue;
+          const t = Int32Array.from(s);
+          [t[i], t[j]] = [t[j], t[i]];
+          const r = tryOne(t, current.equilibrium);
+          if (r !== null && r.equilibrium.status === 'ok' && r.equilibrium.perimeter < current.equilibrium.perimeter) {
+            current = r;
+            improved = true;
+          }
+        }
+      }
+    }
+  }
+}
+
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}

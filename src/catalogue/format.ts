@@ -1,0 +1,78 @@
+// catalogue stage: write a catalogue as JSON text (deterministic bytes) and read one back, checked
+// against catalogues/catalogue.schema.json and its version.
+
+import { Ajv } from 'ajv';
+import schema from '../../catalogues/catalogue.schema.json' with { type: 'json' };
+import { CatalogueFormatError } from '../errors.ts';
+import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue } from './types.ts';
+
+/** Significant digits of every float written; the solver itself never rounds. */
+export const WRITE_DIGITS = 12;
+
+function round(x: number): number {
+  if (!Number.isFinite(x)) return x; // the schema refuses it: a non-finite number is a bug upstream
+  if (Number.isInteger(x)) return x;
+  const r = Number(x.toPrecision(WRITE_DIGITS));
+  return Object.is(r, -0) ? 0 : r;
+}
+
+function rounded(value: unknown): unknown {
+  if (typeof value === 'number') return round(value);
+  if (Array.isArray(value)) return value.map(rounded);
+  if (value !== null && typeof value === 'object') {
+    const out: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(value)) out[k] = rounded(v);
+    return out;
+  }
+  return value;
+}
+
+/**
+ * The catalogue as JSON text: the head pretty-printed, one entry per line, floats to 12 significant
+ * digits, keys in a fixed order. Same catalogue, same bytes.
+ */
+export function writeCatalogue(catalogue: Catalogue): string {
+  const { entries, ...head } = rounded(catalogue) as Catalogue;
+  const lines = [
+    '{',
+    `  "format": ${JSON.stringify(head.format)},`,
+    `  "version": ${head.version},`,
+    `  "query": ${JSON.stringify(head.query)},`,
+    `  "counts": ${JSON.stringify(head.counts)},`,
+    '  "entries": [',
+    entries.map((e) => `    ${JSON.stringify(e)}`).join(',\n'),
+    '  ]',
+    '}',
+  ];
+  return lines.filter((l, i) => !(l === '' && i === 6)).join('\n') + '\n';
+}
+
+const ajv = new Ajv({ allErrors: false, strict: false });
+const validate = ajv.compile(schema);
+
+/**
+ * Read a catalogue from JSON text.
+ * @throws CatalogueFormatError when the text is not JSON, not a lather catalogue, of another version,
+ *   or fails the schema.
+ */
+export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
+  let data: unknown;
+  try {
+    data = JSON.parse(text);
+  } catch {
+    throw new CatalogueFormatError(`${source} is not JSON when expected a ${CATALOGUE_FORMAT} file.`);
+  }
+  const head = data as { format?: unknown; version?: unknown } | null;
+  if (head === null || typeof head !== 'object' || head.format !== CATALOGUE_FORMAT) {
+    throw new CatalogueFormatError(`${source} has format ${JSON.stringify(head?.format ?? null)} when expected "${CATALOGUE_FORMAT}".`);
+  }
+  if (head.version !== CATALOGUE_VERSION) {
+    throw new CatalogueFormatError(`Got v${String(head.version)} catalogue when expected v${CATALOGUE_VERSION}.`);
+  }
+  if (!validate(data)) {
+    const err = validate.errors?.[0];
+    const where = err?.instancePath || '/';
+    throw new CatalogueFormatError(`${source} fails its schema at ${where}: ${err?.message ?? 'invalid'} when expected a valid v${CATALOGUE_VERSION} catalogue.`);
+  }
+  return data as unknown as Catalogue;
+}

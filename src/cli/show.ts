@@ -1,0 +1,35 @@
+// cli stage: `lather show FILE.json`, the summary of a catalogue read back from its file.
+
+import { readFileSync } from 'node:fs';
+import { type Command } from 'commander';
+import { readCatalogue } from '../catalogue/format.ts';
+import type { Catalogue } from '../catalogue/types.ts';
+import { UsageError } from '../errors.ts';
+import { wholeNumber } from './parse.ts';
+import { catalogueTable } from './table.ts';
+
+/** Read and check a catalogue file. @throws UsageError or CatalogueFormatError. */
+export function loadCatalogue(path: string): Catalogue {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (error) {
+    const reason = (error as NodeJS.ErrnoException).code ?? 'error';
+    throw new UsageError(`Cannot read ${path} (${reason}) when expected a catalogue file.`);
+  }
+  return readCatalogue(text, path);
+}
+
+/** Attach `show` to the program. */
+export function addShowCommand(program: Command): void {
+  program
+    .command('show')
+    .description('summarise a catalogue file written by rank --out')
+    .argument('<file>', 'catalogue file (.json)')
+    .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1), 25)
+    .option('--stable-only', 'show only equilibria of index 0')
+    .action((file: string, opts) => {
+      const catalogue = loadCatalogue(file);
+      process.stdout.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
+    });
+}
