@@ -9,9 +9,10 @@
 // map is a simple internally triangulated disc (no wall has one face on both sides, no face meets a
 // junction twice), so the drawing is a plane straight-line drawing with every triangle positively
 // oriented ("One-to-one piecewise linear mappings over triangulations", Math. Comp. 72 (2003)).
-// Each wall is then drawn as the circular arc through its two junctions and its wall node. The outer
-// walls' arcs are arcs of the boundary circle, so the drawing encloses exactly the circle's area; the
-// circle's radius is chosen so that this is the requested total area.
+// Each wall is then drawn as the circular arc through its two junctions and its wall node. An arc can
+// swing past a neighbouring wall at a junction where the straight drawing is valid; the walls at such a
+// junction are flattened (bulges halved) until the order holds. Finally the drawing is scaled to the
+// requested total area.
 //
 // Node numbering: junction v -> v, wall k -> V + k, cell f (face f >= 1) -> V + E + f - 1.
 
@@ -98,9 +99,59 @@ export function embedCluster(map: CubicMap, totalArea: number): Drawing {
     const a = (e / 3) | 0;
     const b = (t / 3) | 0;
     const w = junctions + wallOf[e];
-    bulges[wallOf[e]] = bulgeThrough(x[a], y[a], x[w], y[w], x[b], y[b]);
+    const bulge = bulgeThrough(x[a], y[a], x[w], y[w], x[b], y[b]);
+    // outer walls follow the circle; inner ones are kept to minor arcs, which stay near their chord
+    bulges[wallOf[e]] = fixed[w] ? bulge : Math.max(-MAX_INNER_BULGE, Math.min(MAX_INNER_BULGE, bulge));
   }
+  // Does an arc swing past a neighbour at its junction? Flatten the walls there until the order holds.
+  for (let round = 0; round < REPAIR_ROUNDS; round++) {
+    let bad = false;
+    for (let v = 0; v < junctions; v++) {
+      if (inOrder(map, wallOf, coords, bulges, v)) continue;
+      bad = true;
+      for (let i = 0; i < 3; i++) bulges[wallOf[3 * v + i]] *= 0.5;
+    }
+    if (!bad) break;
+  }
+  // scale to the requested total area (flattened outer walls no longer follow the circle)
+  let area = 0;
+  for (let e = 0; e < twins.length; e++) {
+    if (faceOf[e] !== 0) continue;
+    // the outside is walked clockwise, so its signed area is minus the cluster's
+    const a = (e / 3) | 0;
+    const b = (twins[e] / 3) | 0;
+    const t = e < twins[e] ? bulges[wallOf[e]] : -bulges[wallOf[e]];
+    const c2 = (coords[2 * b] - coords[2 * a]) ** 2 + (coords[2 * b + 1] - coords[2 * a + 1]) ** 2;
+    const h = Math.abs(t) < 1e-8 ? t / 6 : (t - Math.sin(t) * Math.cos(t)) / (4 * Math.sin(t) ** 2);
+    area -= 0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b]) - c2 * h;
+  }
+  const stretch = Math.sqrt(totalArea / area);
+  for (let i = 0; i < coords.length; i++) coords[i] *= stretch;
   return { coords, bulges };
+}
+
+// Largest |bulge| of an inner wall in the drawing: a wall node far from a short chord would otherwise
+// give a near-full circle sweeping over its neighbours.
+const MAX_INNER_BULGE = Math.PI / 3;
+
+// Halvings of the bulges at a junction whose arcs leave it out of the map's order (2^-12 is straight
+// for any purpose here).
+const REPAIR_ROUNDS = 12;
+
+// Whether the three arcs at junction v leave it in counter-clockwise order (darts 3v, 3v+1, 3v+2).
+function inOrder(map: CubicMap, wallOf: Int32Array, coords: Float64Array, bulges: Float64Array, v: number): boolean {
+  const { twins } = map;
+  const angles = [0, 0, 0];
+  for (let i = 0; i < 3; i++) {
+    const e = 3 * v + i;
+    const w = (twins[e] / 3) | 0;
+    const t = e < twins[e] ? bulges[wallOf[e]] : -bulges[wallOf[e]];
+    angles[i] = Math.atan2(coords[2 * w + 1] - coords[2 * v + 1], coords[2 * w] - coords[2 * v]) + t;
+  }
+  const turn = (x: number): number => ((x % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
+  const d1 = turn(angles[1] - angles[0]);
+  const d2 = turn(angles[2] - angles[0]);
+  return d1 > 0 && d1 < d2;
 }
 
 // Solve (D - A) pos = 0 on the free nodes with the fixed nodes as boundary values, in place.
