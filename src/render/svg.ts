@@ -50,8 +50,9 @@ export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOpt
   const headingPx = options.headingSizePx ?? 14;
   const title = headings ? drawing.title : undefined;
   const caption = headings ? drawing.caption : undefined;
-  const titlePx = title === undefined ? 0 : 1.6 * headingPx;
-  const captionPx = caption === undefined ? 0 : 1.6 * headingPx;
+  // heading strips two font sizes high, so a heading keeps one font size clear of the drawing
+  const titlePx = title === undefined ? 0 : 2 * headingPx;
+  const captionPx = caption === undefined ? 0 : 2 * headingPx;
 
   // view box: the drawing's extent centred on (0, 0), then margins and heading strips
   const x0 = -w / 2 - marginPx;
@@ -68,10 +69,10 @@ export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOpt
   out.push(renderClusterGroup(drawing, centredPlacement(box, s), digits, options));
   const font = `font-family="sans-serif" text-anchor="middle" fill="${INK}" font-size="${n(headingPx)}"`;
   if (title !== undefined) {
-    out.push(`<text class="title" x="0" y="${n(y0 + marginPx + 0.75 * titlePx)}" ${font} font-weight="bold">${escapeXml(title)}</text>`);
+    out.push(`<text class="title" x="0" y="${n(y0 + marginPx + 0.5 * titlePx)}" ${font} font-weight="bold">${escapeXml(title)}</text>`);
   }
   if (caption !== undefined) {
-    out.push(`<text class="caption" x="0" y="${n(h / 2 + 0.5 * marginPx + 0.75 * captionPx)}" ${font}>${escapeXml(caption)}</text>`);
+    out.push(`<text class="caption" x="0" y="${n(h / 2 + 0.5 * marginPx + 0.65 * captionPx)}" ${font}>${escapeXml(caption)}</text>`);
   }
   out.push('</svg>');
   return `${out.join('\n')}\n`;
