@@ -5,6 +5,8 @@ import { CatalogueFormatError, FormulaError, MapError, UsageError } from '../err
 import { addListCommand } from './list.ts';
 import { addRankCommand } from './rank.ts';
 import { addShowCommand } from './show.ts';
+import { addRelaxCommand } from './relax.ts';
+import { addDrawCommand } from './draw.ts';
 
 /** Build the commander program with every verb attached. */
 export function buildProgram(): Command {
@@ -15,7 +17,9 @@ export function buildProgram(): Command {
     .exitOverride()
     .configureOutput({ writeErr: (text) => process.stderr.write(text) });
   addListCommand(program);
+  addRelaxCommand(program);
   addRankCommand(program);
+  addDrawCommand(program);
   addShowCommand(program);
   for (const command of program.commands) command.exitOverride();
   return program;

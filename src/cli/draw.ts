@@ -1,0 +1,69 @@
+// cli stage: `lather draw`, SVG drawings of one arrangement or of entries of a catalogue file.
+
+import { existsSync } from 'node:fs';
+import { type Command, InvalidArgumentError } from 'commander';
+import { resolveArrangement } from '../maps/resolve.ts';
+import { relax } from '../solver/newton.ts';
+import { renderClusterSvg } from '../render/svg.ts';
+import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
+import { UsageError } from '../errors.ts';
+import { parseAreas } from './areas.ts';
+import { writeFileAtomic } from './io.ts';
+import { entryDrawing, equilibriumDrawing } from './drawings.ts';
+import { areasForCluster } from './relax.ts';
+import { loadCatalogue } from './show.ts';
+
+/** Parse "1-6" or "3" or "1,4,7" into ranks. */
+export function parseRanks(text: string): number[] {
+  const out: number[] = [];
+  for (const part of text.split(',')) {
+    const m = /^\s*([0-9]+)\s*(?:-\s*([0-9]+)\s*)?$/.exec(part);
+    const lo = m ? Number(m[1]) : NaN;
+    const hi = m ? Number(m[2] ?? m[1]) : NaN;
+    if (!(lo >= 1 && hi >= lo)) throw new InvalidArgumentError(`Ranks "${text}" are not valid when expected e.g. 1-6 or 1,3,5.`);
+    for (let r = lo; r <= hi; r++) out.push(r);
+  }
+  return out;
+}
+
+/** Attach `draw` to the program. */
+export function addDrawCommand(program: Command): void {
+  program
+    .command('draw')
+    .description('draw an arrangement at its equilibrium, or ranked entries of a catalogue file, as SVG')
+    .argument('<what>', 'an id (4.9), a code ("3:...b7a") or a catalogue file (.json)')
+    .option('--areas <list>', 'cell areas for an arrangement (default: all 1)', parseAreas)
+    .option('--ranks <list>', 'ranks to draw from a catalogue, e.g. 1-6', parseRanks)
+    .option('--pressures', 'show pressures in the cell labels')
+    .option('--junctions', 'mark junctions')
+    .option('--out <file.svg>', 'write the SVG to a file (default: standard output)')
+    .action((what: string, opts) => {
+      const style = { pressures: opts.pressures, junctions: opts.junctions };
+      let svg: string;
+      if (what.endsWith('.json') || (existsSync(what) && !/^[0-9]+(\.[0-9]+|:.*)$/.test(what))) {
+        const catalogue = loadCatalogue(what);
+        const ranks: number[] = opts.ranks ?? [1];
+        const items: SheetItem[] = [];
+        for (const r of ranks) {
+          const entry = catalogue.entries.find((e) => e.rank === r);
+          if (entry === undefined) {
+            const most = catalogue.entries.filter((e) => e.rank !== null).length;
+            throw new UsageError(`Rank ${r} is not in ${what} when expected 1 to ${most}.`);
+          }
+          items.push({ drawing: entryDrawing(entry)!, rank: r, id: entry.id, perimeter: entry.perimeter ?? undefined, note: `index ${entry.index}` });
+        }
+        svg = items.length === 1 && opts.ranks === undefined
+          ? renderClusterSvg({ ...items[0].drawing, caption: `#1  perimeter ${items[0].perimeter?.toPrecision(10)}` }, style)
+          : renderContactSheet(items, { ...style, title: `${what}: ranks ${ranks.join(', ')}` });
+      } else {
+        if (opts.ranks !== undefined) throw new UsageError('Option --ranks given with an arrangement when expected a catalogue file.');
+        const cluster = resolveArrangement(what);
+        const areas = areasForCluster(cluster, opts.areas, what);
+        const eq = relax(cluster.map, areas);
+        svg = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), style);
+        if (eq.status !== 'ok') process.stderr.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
+      }
+      if (opts.out) writeFileAtomic(opts.out, svg);
+      else process.stdout.write(svg);
+    });
+}
