@@ -1,0 +1,194 @@
+import { describe, expect, it } from 'vitest';
+import { relax, relaxFrom } from '../../src/solver/newton.ts';
+import { checkEquilibrium, certificatePasses } from '../../src/solver/certificate.ts';
+import { enumerateClusters } from '../../src/maps/cluster.ts';
+import { CubicMap, circleMap, thetaMap } from '../../src/maps/cubic-map.ts';
+import type { Equilibrium } from '../../src/solver/result.ts';
+
+const TOL = 1e-10;
+
+function sides(map: CubicMap): number[] {
+  const out: number[] = [];
+  for (let f = 1; f < map.faceCount; f++) out.push(map.faceSize(f));
+  return out;
+}
+
+function clustersWithSides(n: number, wanted: number[]): CubicMap[] {
+  const key = [...wanted].sort().join(',');
+  return [...enumerateClusters(n)].map((c) => c.map).filter((m) => [...sides(m)].sort().join(',') === key);
+}
+
+function expectCertified(map: CubicMap, areas: Float64Array, r: Equilibrium): void {
+  expect(r.status).toBe('ok');
+  expect(certificatePasses(checkEquilibrium(map, areas, r), TOL)).toBe(true);
+}
+
+describe('relax', () => {
+  it('relax(circleMap(), [A]) is the circle of perimeter 2 sqrt(pi A)', () => {
+    // source: classical isoperimetric inequality
+    for (const a of [1, 7.5]) {
+      const r = relax(circleMap(), Float64Array.of(a));
+      expect(r.status).toBe('ok');
+      expect(r.perimeter).toBeCloseTo(2 * Math.sqrt(Math.PI * a), 12);
+      expect(r.pressures[0]).toBeCloseTo(1 / Math.sqrt(a / Math.PI), 12);
+    }
+  });
+
+  it('relax(thetaMap(), [A, A]) is the standard double bubble with its closed-form perimeter', () => {
+    // source: "The standard double soap bubble in R^2 uniquely minimizes perimeter", Pacific J. Math. 159
+    // (1993). Derivation: for equal areas the middle wall is straight (symmetry), of length c; at each
+    // junction the outer arcs leave at 120 degrees from it, so each meets its chord at bulge t = 2 pi/3,
+    // with radius R = c / (2 sin t) = c / sqrt 3. Each outer arc has length c t / sin t = 4 pi R / 3 and
+    // encloses the segment area (c^2/4)(t - sin t cos t)/sin^2 t = R^2 (2 pi/3 + sqrt(3)/4) = A, so the
+    // perimeter 2 (4 pi R / 3) + sqrt(3) R = (8 pi/3 + sqrt 3) sqrt(A / (2 pi/3 + sqrt(3)/4)).
+    const a = 1.7;
+    const r = relax(thetaMap(), Float64Array.of(a, a));
+    expectCertified(thetaMap(), Float64Array.of(a, a), r);
+    const closed = (8 * Math.PI / 3 + Math.sqrt(3)) * Math.sqrt(a / (2 * Math.PI / 3 + Math.sqrt(3) / 4));
+    expect(Math.abs(r.perimeter - closed) / closed).toBeLessThan(1e-12);
+    expect(Math.min(...Array.from(r.curvatures).map(Math.abs))).toBeLessThan(1e-9);
+    expect(r.index).toBe(0);
+  });
+
+  it('relax(thetaMap(), unequal areas) has middle curvature = difference of the outer curvatures', () => {
+    // source: "The standard double soap bubble in R^2 uniquely minimizes perimeter", Pacific J. Math. 159 (1993)
+    const map = thetaMap();
+    const areas = Float64Array.of(1, 4.5);
+    const r = relax(map, areas);
+    expectCertified(map, areas, r);
+    // curvature of a wall seen from the cell on its left of the lower dart: k = p_right - p_left
+    const walls = map.wallIndex();
+    const bySide = new Map<string, number>();
+    for (let e = 0; e < 6; e++) {
+      if (e > map.twins[e]) continue;
+      const pair = [map.faceOf[e], map.faceOf[map.twins[e]]];
+      const k = r.curvatures[walls[e]];
+      // orient every curvature as seen from the higher-numbered face bulging into the lower
+      bySide.set([...pair].sort().join(), pair[0] < pair[1] ? -k : k);
+    }
+    const outer1 = Math.abs(bySide.get('0,1')!);
+    const outer2 = Math.abs(bySide.get('0,2')!);
+    expect(Math.abs(bySide.get('1,2')!)).toBeCloseTo(Math.abs(outer1 - outer2), 10);
+  });
+
+  it('relax on K4 with three equal cells gives straight inner walls at 120 degrees and the closed form', () => {
+    // source: "Proof of the planar triple bubble conjecture", J. reine angew. Math. 567 (2004): the
+    // standard triple bubble. Derivation: by symmetry the inner walls are straight, of length l, and meet at
+    // 120 degrees at the centre; at an outer junction the outer arcs leave at 60 degrees to the outward
+    // radius, and the chord between two outer junctions (length l sqrt 3) leaves at 150 degrees to it, so
+    // the outer arcs are semicircles (bulge pi/2). Cell area = (sqrt(3)/4) l^2 + (3 pi/8) l^2, perimeter
+    // = 3 l + 3 pi (l sqrt 3)/2.
+    const [k4] = clustersWithSides(3, [3, 3, 3]);
+    const a = 2.2;
+    const areas = Float64Array.of(a, a, a);
+    const r = relax(k4, areas);
+    expectCertified(k4, areas, r);
+    const l = Math.sqrt(a / (Math.sqrt(3) / 4 + (3 * Math.PI) / 8));
+    const closed = 3 * l + (3 * Math.PI * l * Math.sqrt(3)) / 2;
+    expect(Math.abs(r.perimeter - closed) / closed).toBeLessThan(1e-12);
+    const straight = Array.from(r.bulges).filter((t) => Math.abs(t) < 1e-9).length;
+    const semicircles = Array.from(r.bulges).filter((t) => Math.abs(Math.abs(t) - Math.PI / 2) < 1e-9).length;
+    expect([straight, semicircles]).toEqual([3, 3]);
+  });
+
+  it('relax at three equal cells: K4 beats the chain and the lens-in-wall arrangement', () => {
+    // source: "Proof of the planar triple bubble conjecture", J. reine angew. Math. 567 (2004)
+    const areas = Float64Array.of(1, 1, 1);
+    const results = [...enumerateClusters(3)].map((c) => ({ sides: sides(c.map).sort().join(), r: relax(c.map, areas) }));
+    const k4 = results.find((x) => x.sides === '3,3,3')!;
+    expect(k4.r.status).toBe('ok');
+    expect(results).toHaveLength(3);
+    for (const other of results) {
+      if (other === k4) continue;
+      // a competitor either has no equilibrium (a named failure) or a longer one
+      if (other.r.status === 'ok') expect(other.r.perimeter).toBeGreaterThan(k4.r.perimeter + 1e-6);
+      else expect(['wall-collapse', 'cell-collapse', 'walls-cross', 'fold']).toContain(other.r.status);
+    }
+    // the chain (a four-sided cell between two lenses) exists and its lenses slide: one zero mode
+    const chain = results.find((x) => x.sides === '2,2,4')!;
+    expect(chain.r.status).toBe('ok');
+    expect(chain.r.zeroModes).toBe(1);
+  });
+
+  it('relax at random areas: K4 is never beaten by the other two arrangements', () => {
+    // source: "Proof of the planar triple bubble conjecture", J. reine angew. Math. 567 (2004)
+    let seed = 7;
+    const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647);
+    const maps = [...enumerateClusters(3)].map((c) => c.map);
+    for (let trial = 0; trial < 8; trial++) {
+      const areas = Float64Array.from([0, 0, 0], () => 1 + 9 * random());
+      const rs = maps.map((m) => ({ k4: sides(m).join() === '3,3,3', r: relax(m, areas) }));
+      const best = rs.find((x) => x.k4)!.r;
+      expect(best.status).toBe('ok');
+      for (const x of rs) if (!x.k4 && x.r.status === 'ok') expect(x.r.perimeter).toBeGreaterThan(best.perimeter);
+    }
+  });
+
+  it('relax scales: areas times s give perimeter times sqrt(s) (s = 1e-3, 1e3)', () => {
+    // source: design.md §4 (dimensional analysis: length scales as the square root of area)
+    const [k4] = clustersWithSides(3, [3, 3, 3]);
+    const areas = Float64Array.of(1, 2, 3.5);
+    const base = relax(k4, areas);
+    for (const s of [1e-3, 1e3]) {
+      const scaled = Float64Array.from(areas, (a) => a * s);
+      const r = relax(k4, scaled);
+      expectCertified(k4, scaled, r);
+      expect(Math.abs(r.perimeter / (base.perimeter * Math.sqrt(s)) - 1)).toBeLessThan(1e-11);
+    }
+  });
+
+  it('relax at four equal cells: the arrangement with a central wall wins, straight, two cells convex', () => {
+    // source: four equal cells, "Calc. Var. PDE 59 (2020)": the standard 4-cluster with a central wall,
+    // which is straight, two of its cells convex and two not; every other arrangement loses.
+    const areas = Float64Array.of(1, 1, 1, 1);
+    let best: { map: CubicMap; r: Equilibrium } | null = null;
+    for (const c of enumerateClusters(4)) {
+      const r = relax(c.map, areas);
+      if (r.status === 'ok' && (!best || r.perimeter < best.r.perimeter)) best = { map: c.map, r };
+    }
+    expect(best).not.toBeNull();
+    const { map, r } = best!;
+    expect(sides(map).sort().join()).toBe('3,3,4,4');
+    // the central wall separates the two four-sided cells
+    const walls = map.wallIndex();
+    let central = -1;
+    for (let e = 0; e < map.twins.length; e++) {
+      const f = map.faceOf[e];
+      const g = map.faceOf[map.twins[e]];
+      if (f > 0 && g > 0 && map.faceSize(f) === 4 && map.faceSize(g) === 4) central = walls[e];
+    }
+    expect(central).toBeGreaterThanOrEqual(0);
+    expect(Math.abs(r.curvatures[central])).toBeLessThan(1e-9);
+    // a cell is convex when every wall bulges out of it or is straight (its corners are 120 degrees)
+    let convex = 0;
+    for (let f = 1; f <= 4; f++) {
+      let out = true;
+      for (let i = map.faceStarts[f]; i < map.faceStarts[f + 1]; i++) {
+        const e = map.faceDarts[i];
+        const t = e < map.twins[e] ? r.bulges[walls[e]] : -r.bulges[walls[e]];
+        // the face lies left of its darts; a wall bulging left of the dart bulges into the cell
+        if (t > 1e-9) out = false;
+      }
+      if (out) convex++;
+    }
+    expect(convex).toBe(2);
+  });
+
+  it('relaxFrom(previous answer) converges in a few iterations at nearby areas', () => {
+    // warm start: Newton's method converges quadratically from a nearby solution (common practice, no source)
+    const [k4] = clustersWithSides(3, [3, 3, 3]);
+    const first = relax(k4, Float64Array.of(1, 1, 1));
+    const areas = Float64Array.of(1.05, 0.98, 1);
+    const next = relaxFrom(k4, areas, first);
+    expectCertified(k4, areas, next);
+    expect(next.iterations).toBeLessThanOrEqual(5);
+    expect(next.perimeter).toBeCloseTo(relax(k4, areas).perimeter, 10);
+  });
+
+  it('relax rejects bad areas with RangeError', () => {
+    for (const bad of [Float64Array.of(1), Float64Array.of(1, 0), Float64Array.of(1, -1), Float64Array.of(1, NaN)]) {
+      expect(() => relax(thetaMap(), bad)).toThrow(RangeError);
+    }
+    expect(() => relax(thetaMap(), Float64Array.of(1, 1), { maxIterations: 0 })).toThrow(RangeError);
+  });
+});
