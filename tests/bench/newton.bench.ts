@@ -1,0 +1,99 @@
+// Benchmark: relax() answers per second from a cold start for n = 4, 6, 8, 10, equal and random areas;
+// certified equilibria and named failures counted apart, mean Newton iterations, peak memory; then the
+// census of every arrangement with n <= 7 at equal areas. Run: npx tsx tests/bench/newton.bench.ts
+import { enumerateClusters } from '../../src/maps/cluster.ts';
+import type { CubicMap } from '../../src/maps/cubic-map.ts';
+import { relax } from '../../src/solver/newton.ts';
+import { certificatePasses, checkEquilibrium } from '../../src/solver/certificate.ts';
+import { PeakMemory, mulberry32, stats } from './common.ts';
+
+// clusters per size: all for n <= 6; every STRIDE-th of the first ones for larger n (enumeration order)
+const SAMPLE: Record<number, { count: number; stride: number }> = {
+  4: { count: 10, stride: 1 },
+  6: { count: 263, stride: 1 },
+  8: { count: 300, stride: 37 },
+  10: { count: 150, stride: 401 },
+};
+const REPEATS = 3;
+
+function sample(n: number): CubicMap[] {
+  const { count, stride } = SAMPLE[n];
+  const out: CubicMap[] = [];
+  let i = 0;
+  for (const c of enumerateClusters(n)) {
+    if (i++ % stride === 0) out.push(c.map);
+    if (out.length === count) break;
+  }
+  return out;
+}
+
+/** Run the benchmark and print its table; returns the sink so the work cannot be optimised away. */
+export function run(): number {
+  const memory = new PeakMemory();
+  let sink = 0;
+  for (const n of [4, 6, 8, 10]) {
+    const maps = sample(n);
+    const random = mulberry32(1000 + n);
+    for (const family of ['equal', 'random'] as const) {
+      const areas = maps.map(() =>
+        Float64Array.from({ length: n }, () => (family === 'equal' ? 1 : 1 + 9 * random())),
+      );
+      // warm up
+      for (let i = 0; i < maps.length; i++) sink += relax(maps[i], areas[i]).iterations;
+      const times: number[] = [];
+      const kinds: Record<string, number> = {};
+      let iterations = 0;
+      for (let rep = 0; rep < REPEATS; rep++) {
+        const t0 = performance.now();
+        for (let i = 0; i < maps.length; i++) {
+          const r = relax(maps[i], areas[i]);
+          sink += r.perimeter;
+          if (rep === 0) {
+            kinds[r.status] = (kinds[r.status] ?? 0) + 1;
+            iterations += r.iterations;
+          }
+        }
+        times.push((performance.now() - t0) / 1000);
+      }
+      const best = Math.min(...times);
+      const ok = kinds.ok ?? 0;
+      const failures = Object.entries(kinds)
+        .filter(([k]) => k !== 'ok')
+        .map(([k, v]) => `${k} ${v}`)
+        .join(', ');
+      console.log(
+        `n=${n} ${family.padEnd(6)} ${maps.length} clusters: ${(maps.length / best).toFixed(0)} answers/s ` +
+          `(${stats(times)}), certified ${ok}, failures: ${failures || 'none'}, ` +
+          `mean iterations ${(iterations / maps.length).toFixed(1)}`,
+      );
+    }
+  }
+  // census: every arrangement with n <= 7 at equal areas
+  let total = 0;
+  let stuck = 0;
+  for (let n = 2; n <= 7; n++) {
+    const kinds: Record<string, number> = {};
+    let recheck = 0;
+    const areas = new Float64Array(n).fill(1);
+    const t0 = performance.now();
+    let count = 0;
+    for (const c of enumerateClusters(n)) {
+      const r = relax(c.map, areas);
+      kinds[r.status] = (kinds[r.status] ?? 0) + 1;
+      if (r.status === 'ok' && !certificatePasses(checkEquilibrium(c.map, areas, r), 1e-10)) recheck++;
+      count++;
+    }
+    total += count;
+    stuck += kinds['no-convergence'] ?? 0;
+    const seconds = (performance.now() - t0) / 1000;
+    console.log(
+      `census n=${n}: ${count} arrangements in ${seconds.toFixed(2)} s: ${JSON.stringify(kinds)}, ` +
+        `ok answers failing the independent re-check: ${recheck}`,
+    );
+  }
+  console.log(`census n<=7: no-convergence ${stuck} of ${total} (${((100 * stuck) / total).toFixed(2)}%)`);
+  console.log(`peak memory ${memory.mib().toFixed(0)} MiB (sink ${sink.toExponential(3)})`);
+  return sink;
+}
+
+run();
