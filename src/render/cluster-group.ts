@@ -181,11 +181,13 @@ function labelSvg(
 
 /**
  * A small unlabelled drawing fitted into a `sizePx` square centred at (cx, cy) of the caller's pixel
- * space: a `<g>` with its own translate transform around renderClusterGroup. Assumes checkDrawing passed.
+ * space: a `<g>` with its own translate transform around renderClusterGroup. With `fill`, every cell
+ * takes that one colour (so the drawing doubles as its legend swatch); otherwise the cell palette.
+ * Assumes checkDrawing passed.
  */
-export function renderThumbnail(drawing: ClusterDrawing, cx: number, cy: number, sizePx: number, digits: number): string {
+export function renderThumbnail(drawing: ClusterDrawing, cx: number, cy: number, sizePx: number, digits: number, fill?: string): string {
   const box = drawingBounds(drawing);
   const placement = centredPlacement(box, fitScale(box, sizePx));
-  const style: ClusterStyle = { labels: false, strokeWidthPx: 1 };
+  const style: ClusterStyle = { labels: false, strokeWidthPx: 1, ...(fill === undefined ? {} : { palette: [fill] }) };
   return `<g class="thumbnail" transform="translate(${fixed(cx, digits)} ${fixed(cy, digits)})">\n${renderClusterGroup(drawing, placement, digits, style)}\n</g>`;
 }

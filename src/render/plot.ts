@@ -136,7 +136,8 @@ function checkPlot(options: PathPlotOptions): void {
  * above the sample's winner, in percent (the winner sits on 0); the winner's bands shaded in a tint
  * of its line colour, transitions (band boundaries where the winner changes) as dashed lines labelled
  * with their parameter value, events as dotted lines, a small drawing of each winner above its band
- * (when the band is at least 18 px wide), and a legend with every series' line, marker and drawing.
+ * (when the band is at least 18 px wide), and a legend with every series' line, marker and drawing;
+ * drawings are filled with a tint of their series' line colour, so drawing, band and line match.
  * Same input, same bytes.
  * @throws UsageError or RangeError when the input is inconsistent (see the option docs).
  */
@@ -193,7 +194,7 @@ export function renderPathPlot(options: PathPlotOptions): string {
     out.push(`<rect x="${n(x0)}" y="${n(plotTop)}" width="${n(x1 - x0)}" height="${n(plotBottom - plotTop)}" fill="${tint(seriesLine(i))}"/>`);
     const size = Math.min(thumbPx, x1 - x0 - 4);
     const drawing = series[i].drawing;
-    if (drawing !== undefined && size >= 18) out.push(renderThumbnail(drawing, 0.5 * (x0 + x1), plotTop - 16 - thumbPx / 2, size, digits));
+    if (drawing !== undefined && size >= 18) out.push(renderThumbnail(drawing, 0.5 * (x0 + x1), plotTop - 16 - thumbPx / 2, size, digits, tint(seriesLine(i), 0.45)));
     if (series[i].label.length * 6.5 <= x1 - x0) {
       out.push(`<text x="${n(0.5 * (x0 + x1))}" y="${n(plotTop - 4)}" font-family="sans-serif" font-size="10" text-anchor="middle" fill="${seriesLine(i)}">${escapeXml(series[i].label)}</text>`);
     }
@@ -254,7 +255,7 @@ export function renderPathPlot(options: PathPlotOptions): string {
     const colour = seriesLine(k);
     out.push(`<line x1="${n(legendX)}" y1="${n(y)}" x2="${n(legendX + 22)}" y2="${n(y)}" stroke="${colour}" stroke-width="1.5"/>`);
     out.push(markerSvg(seriesMarker(k), legendX + 11, y, 3, colour, n));
-    if (s.drawing !== undefined) out.push(renderThumbnail(s.drawing, legendX + 44, y, rowH - 6, digits));
+    if (s.drawing !== undefined) out.push(renderThumbnail(s.drawing, legendX + 44, y, rowH - 6, digits, tint(colour, 0.45)));
     out.push(`<text x="${n(legendX + (s.drawing === undefined ? 30 : 66))}" y="${n(y + 4)}">${escapeXml(s.label)}</text>`);
   });
   out.push('</g>');

@@ -148,7 +148,8 @@ function checkSamples(values: ArrayLike<number>, log: boolean, name: string): vo
  * winner's colour (light grey where none), boundaries between different winners drawn dark, each
  * connected region numbered with its winner's legend number at its most interior cell (so the map
  * reads without colour), axes with ticks for a rectangle grid or share ticks and names for a
- * triangle, and a legend of colours, numbers, names and small drawings. Same input, same bytes.
+ * triangle, and a legend of colours, numbers, names and small drawings filled with their region's
+ * colour. Same input, same bytes.
  * @throws UsageError or RangeError when the input is inconsistent (see the option docs).
  */
 export function renderRegionMap(options: RegionMapOptions): string {
@@ -259,7 +260,7 @@ export function renderRegionMap(options: RegionMapOptions): string {
   rows.forEach(([fill, label, drawing], k) => {
     const y = top + k * rowH + rowH / 2;
     legend.push(`<rect x="${n(legendX)}" y="${n(y - 8)}" width="16" height="16" fill="${fill}" stroke="${INK}" stroke-width="0.75"/>`);
-    if (drawing !== undefined) legend.push(renderThumbnail(drawing, legendX + 28 + thumbPx / 2, y, thumbPx, digits));
+    if (drawing !== undefined) legend.push(renderThumbnail(drawing, legendX + 28 + thumbPx / 2, y, thumbPx, digits, fill));
     legend.push(`<text x="${n(legendX + textX)}" y="${n(y + 4)}">${escapeXml(label)}</text>`);
   });
   legend.push('</g>');
