@@ -2,11 +2,11 @@
 
 import type { ClusterDrawing } from './types.ts';
 import { cellCountOf } from './types.ts';
-import { SvgPath, circlePath, wallTo } from './path.ts';
+import { traceCell, traceWalls } from './outline.ts';
+import type { LabelPoint } from './cell-shape.ts';
 import { drawingBounds, labelPoint } from './cell-shape.ts';
 import { CELL_FILLS, INK, cellFill } from './palette.ts';
 import { escapeXml, fixed, formatValue } from './format.ts';
-import { junctionOf } from '../maps/cubic-map.ts';
 
 /** How a cluster is styled; shared by the single drawing, the contact sheet and the plots' thumbnails. */
 export interface ClusterStyle {
@@ -66,62 +66,33 @@ export function centredPlacement(box: Float64Array, pxPerUnit: number): Placemen
  * Assumes checkDrawing passed.
  */
 export function renderClusterGroup(drawing: ClusterDrawing, placement: Placement, digits: number, style: ClusterStyle = {}): string {
-  const { map, bulges, areas, pressures } = drawing;
+  const { map, areas, pressures } = drawing;
   const { pxPerUnit, originX, originY } = placement;
   const palette = style.palette ?? CELL_FILLS;
   const n = (v: number): string => fixed(v, digits);
-  // junction positions in pixels, y still up
+  // the drawing in pixels, y still up: junctions moved and scaled, areas scaled to match
   const coords = new Float64Array(drawing.coords.length);
   for (let v = 0; v < coords.length; v += 2) {
     coords[v] = pxPerUnit * (drawing.coords[v] - originX);
     coords[v + 1] = pxPerUnit * (drawing.coords[v + 1] - originY);
   }
-  const scaled: ClusterDrawing = { ...drawing, coords };
+  const scaled: ClusterDrawing = { ...drawing, coords, areas: areas.map((a) => a * pxPerUnit * pxPerUnit) };
   const strokeWidth = style.strokeWidthPx ?? 1.5;
   const cells = cellCountOf(drawing);
-  const out: string[] = ['<g class="cluster">', '<g transform="scale(1 -1)">'];
+  // Is it the circle? It has no junctions to move: it lies about the drawing's origin, shifted as a whole.
+  const circle = map.twins.length === 0;
+  const shift = circle && (originX !== 0 || originY !== 0) ? `translate(${n(-pxPerUnit * originX)} ${n(pxPerUnit * originY)}) ` : '';
+  const out: string[] = ['<g class="cluster">', `<g transform="${shift}scale(1 -1)">`];
   const wallStyle = `fill="none" stroke="${INK}" stroke-width="${fixed(strokeWidth, 2)}" stroke-linejoin="round" stroke-linecap="round" vector-effect="non-scaling-stroke"`;
-  const labels: { x: number; y: number; clearance: number }[] = [];
-
-  if (map.twins.length === 0) {
-    // Is it the circle? One cell of area areas[0] about the origin, no junctions.
-    const r = pxPerUnit * Math.sqrt(areas[0] / Math.PI);
-    const path = new SvgPath(digits);
-    circlePath(path, -pxPerUnit * originX, -pxPerUnit * originY, r);
-    out.push(`<path class="cell" data-cell="1" fill="${cellFill(1, palette)}" d="${path}"/>`);
-    out.push(`<path class="walls" ${wallStyle} d="${path}"/>`);
-    labels.push({ x: -pxPerUnit * originX, y: -pxPerUnit * originY, clearance: r });
-  } else {
-    const walls = map.wallIndex();
-    // cells: walk each face with faceNext, each wall in the dart's own direction
-    for (let f = 1; f <= cells; f++) {
-      const path = new SvgPath(digits);
-      const first = map.faceDarts[map.faceStarts[f]];
-      const a0 = junctionOf(first);
-      path.moveTo(coords[2 * a0], coords[2 * a0 + 1]);
-      let e = first;
-      do {
-        const a = junctionOf(e);
-        const b = map.headOf(e);
-        const t = e < map.twins[e] ? bulges[walls[e]] : -bulges[walls[e]];
-        wallTo(path, coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], t);
-        e = map.faceNext(e);
-      } while (e !== first);
-      path.closePath();
-      out.push(`<path class="cell" data-cell="${f}" fill="${cellFill(f, palette)}" d="${path}"/>`);
-      labels.push(labelPoint(scaled, walls, f));
-    }
-    // walls: each once, along its lower dart
-    const path = new SvgPath(digits);
-    for (let e = 0; e < map.twins.length; e++) {
-      if (e > map.twins[e]) continue;
-      const a = junctionOf(e);
-      const b = map.headOf(e);
-      path.moveTo(coords[2 * a], coords[2 * a + 1]);
-      wallTo(path, coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[walls[e]]);
-    }
-    out.push(`<path class="walls" ${wallStyle} d="${path}"/>`);
+  const walls = map.wallIndex();
+  const labels: LabelPoint[] = [];
+  for (let f = 1; f <= cells; f++) {
+    out.push(`<path class="cell" data-cell="${f}" fill="${cellFill(f, palette)}" d="${traceCell(scaled, f, undefined, digits)}"/>`);
+    // the circle's label goes at its centre, with its radius as clearance
+    const centre = { x: -pxPerUnit * originX, y: -pxPerUnit * originY, clearance: Math.sqrt(scaled.areas[0] / Math.PI) };
+    labels.push(circle ? centre : labelPoint(scaled, walls, f));
   }
+  out.push(`<path class="walls" ${wallStyle} d="${traceWalls(scaled, undefined, digits)}"/>`);
   out.push('</g>');
 
   if (style.junctions === true && map.junctionCount > 0) {
@@ -155,7 +126,7 @@ export function renderClusterGroup(drawing: ClusterDrawing, placement: Placement
  */
 function labelSvg(
   lines: string[],
-  at: { x: number; y: number; clearance: number },
+  at: LabelPoint,
   fontPx: number,
   n: (v: number) => string,
 ): string {

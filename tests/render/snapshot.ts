@@ -6,9 +6,10 @@ import { expect } from 'vitest';
 
 const DIR = fileURLToPath(new URL('../snapshots/', import.meta.url));
 
-/** Every number (not inside a colour like #1e5a00 or a word) rounded to 3 decimals, trailing zeros dropped. */
+/** Every number, also right after a path command letter, rounded to 3 decimals; colours like #1e5a00 kept as they are. */
 export function normaliseNumbers(text: string): string {
-  return text.replace(/(?<![#\w.])-?\d+(?:\.\d+)?(?:e[-+]?\d+)?/g, (token) => {
+  return text.replace(/#[0-9a-fA-F]{3,8}\b|-?\d+(?:\.\d+)?(?:e[-+]?\d+)?/g, (token) => {
+    if (token.startsWith('#')) return token;
     const r = Math.round(Number(token) * 1000) / 1000;
     return r === 0 ? '0' : String(r);
   });
@@ -17,10 +18,10 @@ export function normaliseNumbers(text: string): string {
 /**
  * Compare `text` with tests/snapshots/<name>.svg after normalising numbers (d3-geo style protocol):
  * a missing snapshot is written when CI is not set and fails when it is; UPDATE_SNAPSHOTS=1
- * rewrites it.
+ * rewrites it. `dir` (ending in '/') is for testing this helper.
  */
-export function expectSnapshot(name: string, text: string): void {
-  const path = `${DIR}${name}.svg`;
+export function expectSnapshot(name: string, text: string, dir = DIR): void {
+  const path = `${dir}${name}.svg`;
   if (process.env.UPDATE_SNAPSHOTS === '1' || !existsSync(path)) {
     if (process.env.CI !== undefined && process.env.UPDATE_SNAPSHOTS !== '1') {
       throw new Error(`Snapshot ${name}.svg is missing when expected it in tests/snapshots (CI does not write snapshots).`);
