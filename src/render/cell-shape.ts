@@ -1,6 +1,7 @@
 // render stage: per-cell geometry of a drawing (area, centroid, inside test, label point) and its extent.
 
 import type { ClusterDrawing } from './types.ts';
+import { dartBulge } from './types.ts';
 import { arcBoundsInto, emptyBox, segmentAreaFactor, segmentMomentFactor, segmentWinding, wallDistance } from './arc-geometry.ts';
 import { junctionOf } from '../maps/cubic-map.ts';
 
@@ -41,7 +42,7 @@ function forEachSide(
   do {
     const a = junctionOf(e);
     const b = map.headOf(e);
-    const t = e < map.twins[e] ? bulges[walls[e]] : -bulges[walls[e]];
+    const t = dartBulge(map, walls, bulges, e);
     visit(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], t);
     e = map.faceNext(e);
   } while (e !== first);

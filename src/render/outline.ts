@@ -1,6 +1,7 @@
 // render stage: cell boundaries and walls traced into a PathContext (SVG path data when none is given).
 
 import type { ClusterDrawing } from './types.ts';
+import { dartBulge } from './types.ts';
 import type { PathContext } from './context.ts';
 import { SvgPath, circlePath, wallTo } from './path.ts';
 import { junctionOf } from '../maps/cubic-map.ts';
@@ -28,7 +29,7 @@ export function traceCell(drawing: ClusterDrawing, f: number, context?: PathCont
     do {
       const a = junctionOf(e);
       const b = map.headOf(e);
-      const t = e < map.twins[e] ? bulges[walls[e]] : -bulges[walls[e]];
+      const t = dartBulge(map, walls, bulges, e);
       wallTo(target, coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], t);
       e = map.faceNext(e);
     } while (e !== first);

@@ -4,7 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { cellContains, cellMoments, drawingBounds, labelPoint } from '../../src/render/cell-shape.ts';
 import { thetaMap } from '../../src/maps/cubic-map.ts';
 import type { ClusterDrawing } from '../../src/render/types.ts';
-import { doubleBubble, singleBubble, tripleBubble } from './fixtures.ts';
+import { doubleBubble, lensInWall, singleBubble, tripleBubble } from './fixtures.ts';
 import { cellPolygon, mulberry32, polygonContains, polygonMoments } from './reference.ts';
 
 /** A theta-map drawing whose right cell is a crescent: the middle wall bulges deep into it (not an equilibrium). */
@@ -18,6 +18,7 @@ const drawings: [string, ClusterDrawing][] = [
   ['unequal double bubble, other side', doubleBubble(-0.5, 2).drawing],
   ['triple bubble', tripleBubble(1.5).drawing],
   ['crescent', crescent()],
+  ['lens in the middle wall', lensInWall()],
 ];
 
 describe('cellMoments', () => {
@@ -118,6 +119,21 @@ describe('labelPoint', () => {
     const p = labelPoint(drawing, walls, 1);
     expect([p.x, p.y]).toEqual([m.cx, m.cy]);
     expect(p.x).toBeLessThan(0);
+  });
+});
+
+describe('cellMoments of a lens', () => {
+  it('cellMoments of a lens with 60-degree walls on a chord of length 2d is two segments of t = pi/3', () => {
+    // reference: classical segment area R^2 (theta - sin theta) / 2 with theta = 2pi/3, R = 2d / sqrt 3
+    const d = 0.35;
+    const drawing = lensInWall(d);
+    const r = (2 * d) / Math.sqrt(3);
+    const theta = (2 * Math.PI) / 3;
+    const m = cellMoments(drawing, drawing.map.wallIndex(), 3);
+    expect(drawing.map.faceSize(3)).toBe(2);
+    expect(m.area).toBeCloseTo(r * r * (theta - Math.sin(theta)), 14);
+    expect(m.cx).toBeCloseTo(0, 14);
+    expect(m.cy).toBeCloseTo(0, 14);
   });
 });
 

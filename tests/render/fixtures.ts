@@ -72,3 +72,28 @@ export function tripleBubble(area = 1): { drawing: ClusterDrawing; r: number } {
 export function singleBubble(area = 1): ClusterDrawing {
   return { map: circleMap(), coords: new Float64Array(0), bulges: new Float64Array(0), areas: Float64Array.of(area) };
 }
+
+/**
+ * A lens cell sitting in the middle wall of a double bubble (the third arrangement of three cells,
+ * design §1), hand-built: junctions J0 = (0, 1), J1 = (0, -1) as in doubleBubble, lens junctions
+ * J2 = (0, d), J3 = (0, -d) on the middle line. At J2 the darts 6, 7, 8 leave at 90, 210 and 330
+ * degrees (up to J0, then the lens's left and right walls), at J3 the darts 9, 10, 11 at 30, 150 and
+ * 270 degrees; so the lens walls make +-60 degrees with their chord and all four junctions have
+ * 120-degree angles. The outer walls are those of the equal double bubble; areas are whatever this
+ * geometry has (it is not an equilibrium: only the drawing is tested). Face 3 is the lens.
+ */
+export function lensInWall(d = 0.35): ClusterDrawing {
+  const map = new CubicMap(Int32Array.from([3, 5, 6, 0, 11, 1, 2, 10, 9, 8, 7, 4]));
+  const walls = map.wallIndex();
+  const bulges = new Float64Array(6);
+  const byLowerDart: [number, number][] = [
+    [0, (2 * Math.PI) / 3],
+    [1, (-2 * Math.PI) / 3],
+    [2, 0],
+    [4, 0],
+    [7, -Math.PI / 3],
+    [8, Math.PI / 3],
+  ];
+  for (const [e, t] of byLowerDart) bulges[walls[e]] = t;
+  return { map, coords: Float64Array.of(0, 1, 0, -1, 0, d, 0, -d), bulges, areas: Float64Array.of(3.27, 3.27, 0.2) };
+}

@@ -3,7 +3,7 @@
 import { describe, expect, it } from 'vitest';
 import { renderClusterSvg } from '../../src/render/svg.ts';
 import type { ClusterDrawing } from '../../src/render/types.ts';
-import { doubleBubble, singleBubble, tripleBubble } from './fixtures.ts';
+import { doubleBubble, lensInWall, singleBubble, tripleBubble } from './fixtures.ts';
 import { expectSnapshot } from './snapshot.ts';
 
 /** The d attributes of the cell paths and the walls path of a cluster SVG. */
@@ -71,6 +71,15 @@ describe('renderClusterSvg', () => {
     expect(count(full, '>p = 1.59</text>')).toBe(2);
     expect(count(full, '<circle ')).toBe(2);
     expect(renderClusterSvg(labelledDoubleBubble(), { labels: false })).not.toContain('<text x');
+  });
+
+  it('renderClusterSvg shrinks the label of a small cell to its number when the full label cannot fit', () => {
+    // at 200 px the lens of lensInWall (half-width d tan 30 deg = 0.2 of a 3.46-wide drawing) has about
+    // 11.7 px of clearance: two label lines would need a font under 7 px, so it shows its number alone
+    const svg = renderClusterSvg(lensInWall(), { sizePx: 200 });
+    expect(svg).toContain('font-weight="bold">3</text>');
+    expect(svg).not.toContain('>A = 0.2</text>');
+    expect(count(svg, '>A = 3.27</text>')).toBe(2);
   });
 
   it('renderClusterSvg is deterministic: same input, same bytes, also from a copy', () => {
