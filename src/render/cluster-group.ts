@@ -1,4 +1,4 @@
-// render stage: one cluster as an SVG group in its own coordinates (world units, y flipped to point down).
+// render stage: one cluster as an SVG group in pixel units about a chosen drawing point, y pointing down.
 
 import type { ClusterDrawing } from './types.ts';
 import { cellCountOf } from './types.ts';
