@@ -106,12 +106,12 @@ export async function rankAreas(areas: readonly number[], options: RankOptions =
   }
   const candidates = planned.reduce((p, q) => p + q.candidates, 0);
   const affordable = Math.floor((budgetSeconds * workers) / secondsPerCandidate(n));
-  const exhaustive = candidates <= affordable;
-  const cap = exhaustive ? Infinity : Math.max(1, Math.floor(affordable / Math.max(1, planned.length)));
+  const fits = candidates <= affordable;
+  const cap = fits ? Infinity : Math.max(1, Math.floor(affordable / Math.max(1, planned.length)));
 
   const tasks: ClusterTask[] = planned.map((p, k) => ({
-    code: p.cluster.code, classes, mode: exhaustive || p.candidates <= cap ? 'all' : 'search',
-    cap: exhaustive ? p.candidates : Math.min(cap, p.candidates), seed: seed + k, newton: options.newton,
+    code: p.cluster.code, classes, mode: p.candidates <= cap ? 'all' : 'search',
+    cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton,
   }));
   const total = tasks.reduce((p, t, k) => p + (t.mode === 'all' ? planned[k].candidates : t.cap), 0);
   const results = await runTasks(tasks, workers, total, options.onProgress);
@@ -132,7 +132,7 @@ export async function rankAreas(areas: readonly number[], options: RankOptions =
     version: CATALOGUE_VERSION,
     query: { areas: [...areas], filter, budgetSeconds, seed },
     counts: {
-      enumerated, arrangements: planned.length, candidates, tried, skipped: candidates - tried, exhaustive,
+      enumerated, arrangements: planned.length, candidates, tried, skipped: candidates - tried, exhaustive: tried === candidates,
       equilibria, stable, failures,
       rootings: {
         sum: n >= 2 ? String(rootings) : '0',
