@@ -161,7 +161,8 @@ async function runTasks(
   }
   const pool = new Piscina({
     filename: new URL('./worker.ts', import.meta.url).href,
-    execArgv: ['--import', 'tsx'],
+    // resolve tsx from here, so the pool works whatever the current directory is
+    execArgv: ['--import', import.meta.resolve('tsx')],
     minThreads: workers,
     maxThreads: workers,
   });
