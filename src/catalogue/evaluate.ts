@@ -10,6 +10,7 @@ import { relax, relaxFrom } from '../solver/newton.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import { type AreaClasses, areasOf, orbitAssignments, orbitRepresentative } from './assign.ts';
+import { mulberry32 } from '../random.ts';
 
 /** One cluster's share of a ranking. */
 export interface ClusterTask {
@@ -142,15 +143,4 @@ function searchCluster(
       }
     }
   }
-}
-
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }

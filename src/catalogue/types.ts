@@ -1,6 +1,7 @@
 // catalogue stage: the catalogue of a ranking, as plain data (what format.ts writes and reads).
 
 import type { ArrangementFilter } from './filter.ts';
+import type { Certificate } from '../solver/certificate.ts';
 
 /** Format name written into every catalogue file. */
 export const CATALOGUE_FORMAT = 'lather-catalogue';
@@ -42,16 +43,8 @@ export interface CatalogueCounts {
   rootings: { sum: string; expected: string };
 }
 
-/** The certificate of an entry (see solver/certificate.ts). */
-export interface EntryCertificate {
-  areaResidual: number;
-  tangentResidual: number;
-  curvatureResidual: number;
-  minWallLength: number;
-  minCellArea: number;
-  crossings: number;
-  misorderedJunctions: number;
-}
+/** The certificate of an entry: the relaxer's own (solver/certificate.ts). */
+export type EntryCertificate = Certificate;
 
 /** One candidate: an arrangement with its areas, relaxed. */
 export interface CatalogueEntry {

@@ -1,16 +1,6 @@
 // Benchmark helpers: seeded PRNG, timing statistics, peak memory.
 
-/** mulberry32: a small seeded PRNG returning floats in [0, 1). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+export { mulberry32 } from '../../src/random.ts';
 
 /** min and mean ± std of a list of seconds, formatted. */
 export function stats(seconds: number[]): string {

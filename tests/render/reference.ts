@@ -91,14 +91,5 @@ export function polygonContains(p: number[], x: number, y: number): boolean {
   return inside;
 }
 
-/** A small seeded generator (mulberry32), for reproducible random points. */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let z = a;
-    z = Math.imul(z ^ (z >>> 15), z | 1);
-    z ^= z + Math.imul(z ^ (z >>> 7), z | 61);
-    return ((z ^ (z >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** A small seeded generator, for reproducible random points. */
+export { mulberry32 } from '../../src/random.ts';

@@ -1,0 +1,16 @@
+// shared: a small seeded pseudo-random generator, so searches, tests and benchmarks are reproducible.
+
+/**
+ * mulberry32: a 32-bit state generator returning floats in [0, 1) (common practice, no source).
+ * Same seed, same sequence, on every platform (integer arithmetic only).
+ */
+export function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
