@@ -5,6 +5,7 @@ import { canonicalCluster, labellingOrder } from './canonical.ts';
 import { encodeCode, mapFromCode } from './code.ts';
 import { type EnumerateOptions, enumerateMaps, isThreeConnected } from './enumerate.ts';
 import { validateCluster } from './validate.ts';
+import { MapError } from '../errors.ts';
 
 /**
  * A cluster in canonical labelling: face 0 of `map` is the outside and faces 1..n are cells 1..n, so
@@ -48,7 +49,12 @@ export function clusterOf(map: CubicMap, outer: number, threeConnected = isThree
  */
 export function clusterFromCode(code: string): Cluster {
   const { cells, map } = mapFromCode(code);
-  validateCluster(map, cells);
+  try {
+    validateCluster(map, cells);
+  } catch (error) {
+    if (error instanceof MapError) throw new MapError(`Arrangement code "${code}" is not admissible: ${error.message}`);
+    throw error;
+  }
   return clusterOf(map, map.faceOf.length > 0 ? map.faceOf[0] : 1);
 }
 
