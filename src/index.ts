@@ -13,3 +13,25 @@ export { type ArrangementCounts, countArrangements, rootedMapCount } from './map
 export { estimateClusterCount } from './maps/estimate.ts';
 export { t1Swap } from './maps/t1.ts';
 export { resolveArrangement, arrangementIds } from './maps/resolve.ts';
+
+// ② geometry and the relaxer
+export { embedCluster } from './arcs/embed.ts';
+export { relax, relaxFrom, type EquilibriumStart } from './solver/newton.ts';
+export { type NewtonOptions, resolveOptions } from './solver/options.ts';
+export type { Equilibrium, EquilibriumStatus } from './solver/result.ts';
+export { type Certificate, checkEquilibrium, certificatePasses } from './solver/certificate.ts';
+
+// ③ ranking and catalogues
+export { type RankOptions, rankAreas, checkAreas } from './catalogue/rank.ts';
+export { type ArrangementFilter, passesFilter } from './catalogue/filter.ts';
+export { writeCatalogue, readCatalogue } from './catalogue/format.ts';
+export type { Catalogue, CatalogueEntry, CatalogueCounts, CatalogueQuery } from './catalogue/types.ts';
+export { CATALOGUE_FORMAT, CATALOGUE_VERSION } from './catalogue/types.ts';
+export { EXAMPLES, findExample } from './catalogue/examples.ts';
+export { areaClasses, orbitAssignments, orbitCount } from './catalogue/assign.ts';
+
+// ④ drawings
+export type { ClusterDrawing } from './render/types.ts';
+export { renderClusterSvg, type ClusterSvgOptions } from './render/svg.ts';
+export { renderContactSheet, type SheetItem, type ContactSheetOptions } from './render/sheet.ts';
+export { renderPathPlot, renderRegionMap, type PathPlotOptions, type RegionMapOptions } from './render/plot.ts';
