@@ -20,13 +20,12 @@ import { validateCluster } from './validate.ts';
 import { MapError } from '../errors.ts';
 
 /**
- * The cluster reached by the T1 swap of the wall of dart `d` (outside kept), in canonical form, or null
- * when the swap leaves no admissible cluster (a loop or a bridge appears, as when d bounds a lens).
+ * The map after the T1 swap of the wall of dart `d`, in the same dart numbering (d and its twin are the
+ * new wall; each other dart keeps its wall-half, moved to its new junction), and the new dart of each
+ * old dart. Not checked for admissibility.
  */
-export function t1Swap(cluster: Cluster, d: number): Cluster | null {
-  const { map } = cluster;
+export function t1SwapMap(map: CubicMap, d: number): { map: CubicMap; slot: Int32Array } {
   const m = map.twins.length;
-  if (m === 0 || d < 0 || d >= m) return null;
   const old = map.twins;
   const dt = old[d];
   // new slot of each role: u keeps d as the new wall, then b, c; v keeps d' as the new wall, then e, a
@@ -42,9 +41,20 @@ export function t1Swap(cluster: Cluster, d: number): Cluster | null {
   slot[a] = prev(dt);
   const twins = new Int32Array(m);
   for (let x = 0; x < m; x++) twins[slot[x]] = slot[old[x]];
-  let swapped: CubicMap;
+  return { map: new CubicMap(twins), slot };
+}
+
+/**
+ * The cluster reached by the T1 swap of the wall of dart `d` (outside kept), in canonical form, or null
+ * when the swap leaves no admissible cluster (a loop or a bridge appears, as when d bounds a lens).
+ */
+export function t1Swap(cluster: Cluster, d: number): Cluster | null {
+  const { map } = cluster;
+  const m = map.twins.length;
+  if (m === 0 || d < 0 || d >= m) return null;
+  const dt = map.twins[d];
+  const { map: swapped, slot } = t1SwapMap(map, d);
   try {
-    swapped = new CubicMap(twins);
     validateCluster(swapped, cluster.cells);
   } catch (error) {
     if (error instanceof MapError) return null;
