@@ -1,0 +1,205 @@
+// sweep stage: sweep one parameter along a path: every candidate tracked from sample to sample, winners, transitions and boundaries.
+//
+// At each sample a candidate certified at the previous sample starts from that equilibrium (relaxFrom,
+// which falls back to a cold start); one that was not starts cold, and after a cold failure it is
+// skipped for 1, 2, 4, ... up to maxSkip samples before the next try. When a skipped candidate is found
+// again, it is followed backwards with warm starts to where it begins. Transitions between samples
+// (transitions.ts) and the existence boundaries of the competitors (boundaries.ts) are then located.
+
+import { UsageError } from '../errors.ts';
+import type { Equilibrium } from '../solver/result.ts';
+import { candidateAreasInto, sweepCandidates } from './candidates.ts';
+import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type PathDomain } from './domain.ts';
+import type { AreaFormula } from './formula.ts';
+import { rankPlaced } from './order.ts';
+import { type KnownState, type PathContext, probeOptionsOf } from './probe.ts';
+import { type TrackedState, emptyCounts, trackStep } from './track.ts';
+import { locateBoundary } from './boundaries.ts';
+import { type PathPoint, locateTransitions } from './transitions.ts';
+import type { Boundary, Interval, PathSweep, Placed, SweepOptions, Transition } from './types.ts';
+
+/**
+ * Sweep the areas `formulas` (one per cell) along `domain`.
+ * @throws FormulaError when a formula is not a positive finite area somewhere on the range.
+ * @throws UsageError when an option is out of range.
+ */
+export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, options: SweepOptions = {}): PathSweep {
+  if (!(Number.isInteger(domain.samples) && domain.samples >= 2)) {
+    throw new UsageError(`Path has ${domain.samples} samples when expected a whole number of at least 2.`);
+  }
+  checkFormulasOnDomain(formulas, domain);
+  const competitorCount = options.competitors ?? 4;
+  const maxSkip = options.maxSkip ?? 8;
+  const tolerance = options.tolerance ?? 1e-6;
+  if (!(Number.isInteger(competitorCount) && competitorCount >= 1)) throw new UsageError(`Competitors is ${competitorCount} when expected a whole number of at least 1.`);
+  if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
+  if (!(tolerance > 0 && Number.isFinite(tolerance))) throw new RangeError(`Tolerance is ${tolerance} when expected a positive finite number.`);
+  const newton = options.newton;
+  const set = sweepCandidates(formulas, options.filter);
+  const { candidates } = set;
+  const points = domainSamples(domain);
+  const count = points.count;
+  const xs = points.values;
+  const m = formulas.length;
+  const slotValues = new Float64Array(count * m);
+  for (let k = 0; k < count; k++) slotValuesInto(formulas, sampleScope(points, k), slotValues.subarray(k * m, (k + 1) * m));
+  const counts = emptyCounts();
+
+  // track every candidate along the samples
+  const states: (TrackedState | null)[][] = candidates.map(() => new Array<TrackedState | null>(count).fill(null));
+  const statuses: string[][] = candidates.map(() => new Array<string>(count).fill('skipped'));
+  const linked: Uint8Array[] = candidates.map(() => new Uint8Array(count)); // state k continues state k - 1
+  const failures: (Equilibrium | null)[][] = candidates.map(() => new Array(count).fill(null));
+  const nextTry = new Int32Array(candidates.length);
+  const skip = new Int32Array(candidates.length).fill(1);
+  const areasAtSample = (c: number, k: number): Float64Array =>
+    candidateAreasInto(candidates[c], slotValues.subarray(k * m, (k + 1) * m), new Float64Array(candidates[c].slots.length));
+  for (let k = 0; k < count; k++) {
+    for (const cand of candidates) {
+      const c = cand.index;
+      const prev = k > 0 ? states[c][k - 1] : null;
+      if (prev === null && k < nextTry[c]) continue;
+      const areas = areasAtSample(c, k);
+      const step = trackStep(cand.cluster.map, areas, prev, newton, counts, prev === null ? 'cold' : 'warm');
+      statuses[c][k] = step.equilibrium.status;
+      if (step.ok) {
+        states[c][k] = { areas, equilibrium: step.equilibrium };
+        linked[c][k] = step.continued ? 1 : 0;
+        skip[c] = 1;
+        if (prev === null && k > 0) backfill(c, k);
+        continue;
+      }
+      failures[c][k] = step.equilibrium;
+      if (prev !== null) {
+        // the branch ended here; relaxFrom already tried a cold start, so try again at the next sample
+        nextTry[c] = k + 1;
+        skip[c] = 1;
+      } else {
+        nextTry[c] = k + skip[c];
+        skip[c] = Math.min(2 * skip[c], maxSkip);
+      }
+    }
+    options.onProgress?.(k + 1, count);
+  }
+
+  // follow a candidate found at sample k backwards to where its branch begins
+  function backfill(c: number, k: number): void {
+    for (let j = k - 1; j >= 0; j--) {
+      if (states[c][j] !== null) return;
+      const areas = areasAtSample(c, j);
+      const step = trackStep(candidates[c].cluster.map, areas, states[c][j + 1], newton, counts, 'warm');
+      statuses[c][j] = step.equilibrium.status;
+      if (!step.ok) {
+        failures[c][j] = step.equilibrium;
+        return;
+      }
+      states[c][j] = { areas, equilibrium: step.equilibrium };
+      linked[c][j + 1] = step.continued ? 1 : 0;
+      if (!step.continued) return;
+    }
+  }
+
+  // rank every sample; the competitors are those ranked within competitorCount somewhere
+  const ranked: Placed[][] = [];
+  for (let k = 0; k < count; k++) {
+    const placed: Placed[] = [];
+    for (const cand of candidates) {
+      const s = states[cand.index][k];
+      if (s !== null) placed.push({ candidate: cand.index, perimeter: s.equilibrium.perimeter });
+    }
+    ranked.push(rankPlaced(placed, candidates, competitorCount));
+  }
+  const winners = ranked.map((r) => (r.length > 0 ? r[0].candidate : -1));
+  const competitors = competitorOrder(ranked, winners);
+
+  const ctx: PathContext = {
+    formulas, parameter: domain.parameter.name, set, probeOptions: probeOptionsOf(newton), counts, tolerance,
+  };
+  const pointAt = (k: number): PathPoint => {
+    const known = new Map<number, KnownState>();
+    for (const cand of candidates) {
+      const s = states[cand.index][k];
+      if (s !== null) known.set(cand.index, { p: xs[k], state: s });
+    }
+    return { p: xs[k], known };
+  };
+
+  // transitions between consecutive samples with different winners
+  const transitions: Transition[] = [];
+  for (let k = 0; k + 1 < count; k++) {
+    if (winners[k] === winners[k + 1]) continue;
+    if (winners[k] < 0 || winners[k + 1] < 0) {
+      const mid = 0.5 * (xs[k] + xs[k + 1]);
+      const c = winners[k] < 0 ? winners[k + 1] : winners[k];
+      const P = (states[c][winners[k] < 0 ? k + 1 : k] as TrackedState).equilibrium.perimeter;
+      transitions.push({ at: mid, bracket: [xs[k], xs[k + 1]], from: winners[k], to: winners[k + 1], kind: 'existence', perimeters: [P, P] });
+      continue;
+    }
+    const left = pointAt(k);
+    const right = pointAt(k + 1);
+    const others = [...new Set([...left.known.keys(), ...right.known.keys()])];
+    transitions.push(...locateTransitions(ctx, left, right, winners[k], winners[k + 1], others));
+  }
+
+  // existence boundaries of the competitors
+  const boundaries: Boundary[] = [];
+  for (const c of competitors) {
+    for (let k = 0; k + 1 < count; k++) {
+      const here = states[c][k];
+      const there = states[c][k + 1];
+      const joined = here !== null && there !== null && linked[c][k + 1] === 1;
+      if (here !== null && !joined) {
+        const b = locateBoundary(ctx, c, { p: xs[k], state: here }, xs[k + 1], failures[c][k + 1], xs[count - 1]);
+        if (b !== null) boundaries.push(b);
+      }
+      if (there !== null && !joined && statuses[c][k] !== 'skipped') {
+        const b = locateBoundary(ctx, c, { p: xs[k + 1], state: there }, xs[k], failures[c][k], xs[0]);
+        if (b !== null) boundaries.push(b);
+      }
+    }
+  }
+  boundaries.sort((a, b) => a.at - b.at || a.candidate - b.candidate);
+
+  return {
+    kind: 'path',
+    formulas,
+    domain,
+    set,
+    xs,
+    slotValues,
+    states,
+    statuses,
+    ranked,
+    competitors,
+    transitions,
+    boundaries,
+    intervals: intervalsOf(xs, winners, transitions),
+    counts: { enumerated: set.enumerated, arrangements: set.arrangements, candidates: candidates.length, relaxations: counts },
+  };
+}
+
+/** Competitors: every sample's winner in order of first win, then the other ranked ones in order of first appearance. */
+function competitorOrder(ranked: Placed[][], winners: ArrayLike<number>): number[] {
+  const order: number[] = [];
+  for (let k = 0; k < winners.length; k++) if (winners[k] >= 0 && !order.includes(winners[k])) order.push(winners[k]);
+  for (const r of ranked) for (const p of r) if (!order.includes(p.candidate)) order.push(p.candidate);
+  return order;
+}
+
+/** The intervals between the range ends and the located transitions, with their winners and sample counts. */
+function intervalsOf(xs: Float64Array, winners: ArrayLike<number>, transitions: readonly Transition[]): Interval[] {
+  const ends = [xs[0], ...transitions.map((t) => t.at), xs[xs.length - 1]];
+  const owners = [winners[0], ...transitions.map((t) => t.to)];
+  const intervals: Interval[] = [];
+  for (let i = 0; i < owners.length; i++) {
+    const from = ends[i];
+    const to = ends[i + 1];
+    let samples = 0;
+    for (let k = 0; k < xs.length; k++) {
+      const inside = xs[k] >= from && (xs[k] < to || (i === owners.length - 1 && xs[k] <= to));
+      if (inside && winners[k] === owners[i]) samples++;
+    }
+    intervals.push({ from, to, winner: owners[i] < 0 ? null : owners[i], samples });
+  }
+  return intervals;
+}
