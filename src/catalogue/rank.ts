@@ -196,7 +196,7 @@ async function runTasks(
 }
 
 /** Significant digits perimeters are compared at, so rounding noise never reorders equal perimeters. */
-const ORDER_DIGITS = 11;
+export const ORDER_DIGITS = 11;
 
 function buildEntries(
   planned: Planned[], results: CandidateResult[][], classes: AreaClasses, areas: number[], ids: Map<string, string>,
