@@ -1,8 +1,6 @@
-// cli stage: the only file-system helpers; every output file is written whole or not at all.
+// cli stage: write a whole file at once, through a temporary file renamed into place.
 
-import { closeSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
-import { UsageError } from '../errors.ts';
+import { Output } from './output.ts';
 
 /**
  * Write text to `path` through a temporary file in the same directory, then rename it into place,
@@ -10,19 +8,12 @@ import { UsageError } from '../errors.ts';
  * @throws UsageError when the directory cannot be written.
  */
 export function writeFileAtomic(path: string, text: string): void {
-  const tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
-  let fd = -1;
+  const output = new Output(path);
   try {
-    fd = openSync(tmp, 'w');
-    writeSync(fd, text);
-    fsyncSync(fd);
-    closeSync(fd);
-    fd = -1;
-    renameSync(tmp, path);
+    output.write(text);
+    output.close();
   } catch (error) {
-    if (fd !== -1) closeSync(fd);
-    rmSync(tmp, { force: true });
-    const reason = (error as NodeJS.ErrnoException).code ?? 'error';
-    throw new UsageError(`Cannot write ${path} (${reason}) when expected a writable file path.`);
+    output.abort();
+    throw error;
   }
 }

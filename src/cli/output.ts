@@ -1,6 +1,6 @@
 // cli stage: an output sink that is either standard output or a file written whole or not at all.
 
-import { closeSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
+import { closeSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { UsageError } from '../errors.ts';
 
@@ -31,14 +31,21 @@ export class Output {
 
   /** Append one line (a newline is added). */
   line(text: string): void {
-    this.buffer.push(text);
+    this.buffer.push(text + '\n');
     this.size += text.length + 1;
+    if (this.size > 1 << 16) this.flush();
+  }
+
+  /** Append text as it is. */
+  write(text: string): void {
+    this.buffer.push(text);
+    this.size += text.length;
     if (this.size > 1 << 16) this.flush();
   }
 
   private flush(): void {
     if (this.buffer.length === 0) return;
-    const text = this.buffer.join('\n') + '\n';
+    const text = this.buffer.join('');
     this.buffer = [];
     this.size = 0;
     let offset = 0;
@@ -50,6 +57,7 @@ export class Output {
   close(): void {
     this.flush();
     if (this.tmp !== null && this.path !== null) {
+      fsyncSync(this.fd);
       closeSync(this.fd);
       renameSync(this.tmp, this.path);
     }
