@@ -5,6 +5,7 @@ import { CatalogueFormatError, FormulaError, MapError, UsageError } from '../err
 import { addListCommand } from './list.ts';
 import { addRankCommand } from './rank.ts';
 import { addShowCommand } from './show.ts';
+import { addSweepCommand } from './sweep.ts';
 import { addRelaxCommand } from './relax.ts';
 import { addDrawCommand } from './draw.ts';
 
@@ -21,6 +22,7 @@ export function buildProgram(): Command {
   addRankCommand(program);
   addDrawCommand(program);
   addShowCommand(program);
+  addSweepCommand(program);
   for (const command of program.commands) command.exitOverride();
   return program;
 }

@@ -1,0 +1,98 @@
+// cli stage: `lather sweep`, which arrangement wins as the areas change along a path, over a grid or over a triangle.
+
+import { type Command, InvalidArgumentError } from 'commander';
+import type { ArrangementFilter } from '../catalogue/filter.ts';
+import { UsageError } from '../errors.ts';
+import { parseAreaFormulas } from '../sweep/formula.ts';
+import { type SweepDomain, checkFormulasOnDomain, parameterNames, parseShares, parseVary } from '../sweep/domain.ts';
+import { sweepPath } from '../sweep/path.ts';
+import { sweepRegion } from '../sweep/region.ts';
+import { pathSweepJson, regionSweepJson } from '../sweep/format.ts';
+import { writeFileAtomic } from './io.ts';
+import { wholeNumber } from './parse.ts';
+import { startProgress, type Progress } from './progress.ts';
+import { pathPlot, pathTable, regionPlot, regionTable } from './sweep-output.ts';
+
+/** Default samples: along a path, per side of a grid, divisions of a triangle's side. */
+const DEFAULT_SAMPLES = { path: 50, grid: 12, triangle: 10 } as const;
+
+function samplesOption(text: string): number {
+  const v = wholeNumber(1)(text);
+  if (v > 10000) throw new InvalidArgumentError(`Samples "${text}" is above 10000 when expected at most 10000.`);
+  return v;
+}
+
+/** Read the domain from --vary / --shares, --samples and --log. @throws UsageError when they do not fit together. */
+function domainFrom(opts: { vary?: string; shares?: string; samples?: number; log?: boolean }): SweepDomain {
+  if ((opts.vary === undefined) === (opts.shares === undefined)) {
+    throw new UsageError('Got ' + (opts.vary === undefined ? 'neither --vary nor --shares' : 'both --vary and --shares') +
+      ' when expected one of them, e.g. --vary t=0.1:10 or --shares a,b,c=3.');
+  }
+  if (opts.shares !== undefined) {
+    if (opts.log) throw new UsageError('Got --log with --shares when expected --log only with --vary.');
+    const { shares, total } = parseShares(opts.shares);
+    return { kind: 'triangle', shares, total, divisions: opts.samples ?? DEFAULT_SAMPLES.triangle };
+  }
+  const ranges = parseVary(opts.vary as string);
+  const log = Boolean(opts.log);
+  if (ranges.length === 1) {
+    const samples = opts.samples ?? DEFAULT_SAMPLES.path;
+    if (samples < 2) throw new UsageError(`Samples is ${samples} when expected at least 2 along a path.`);
+    return { kind: 'path', parameter: ranges[0], samples, log };
+  }
+  return { kind: 'grid', parameters: [ranges[0], ranges[1]], samples: opts.samples ?? DEFAULT_SAMPLES.grid, log };
+}
+
+/** Attach `sweep` to the program. */
+export function addSweepCommand(program: Command): void {
+  program
+    .command('sweep')
+    .description('which arrangement wins as the areas change: along a path, over a grid or over a triangle of shares')
+    .requiredOption('--areas <formulas>', 'cell areas as formulas of the parameters, comma separated, e.g. "1, 1, 1, t"')
+    .option('--vary <ranges>', 'one parameter (a path) or two (a grid) with their ranges, e.g. t=0.1:10 or s=0.5:2,t=0.5:2')
+    .option('--shares <names=total>', 'three shares with a fixed total, sampled over their triangle, e.g. a,b,c=3')
+    .option('--samples <n>', 'samples along the path (50), per side of the grid (12), or triangle divisions per side (10)', samplesOption)
+    .option('--log', 'space the samples evenly in the logarithm of each parameter')
+    .option('--competitors <k>', 'candidates ranked within the top k somewhere are plotted and have their boundaries located', wholeNumber(1), 4)
+    .option('--three-connected', 'only arrangements whose map is 3-connected')
+    .option('--no-lens', 'leave out arrangements with a 2-sided cell')
+    .option('--max-sides <k>', 'only arrangements whose cells have at most k sides', wholeNumber(1))
+    .option('--min-sides <k>', 'only arrangements whose cells have at least k sides', wholeNumber(1))
+    .option('--json [file]', 'write every sample, transition and boundary as JSON to the file (or to stdout instead of the table)')
+    .option('--plot <file.svg>', 'draw the path plot or the region map')
+    .action((opts) => {
+      // everything is checked before any relaxing
+      const domain = domainFrom(opts);
+      const formulas = parseAreaFormulas(opts.areas, parameterNames(domain));
+      checkFormulasOnDomain(formulas, domain);
+      const filter: ArrangementFilter = {};
+      if (opts.threeConnected) filter.threeConnected = true;
+      if (opts.lens === false) filter.lens = false;
+      if (opts.maxSides !== undefined) filter.maxSides = opts.maxSides;
+      if (opts.minSides !== undefined) filter.minSides = opts.minSides;
+      let progress: Progress | null = null;
+      const onProgress = (done: number, total: number): void => {
+        progress ??= startProgress('sweeping', total);
+        progress.update(done);
+      };
+      const query = { filter, competitors: opts.competitors };
+      let json: string;
+      let lines: string[];
+      let svg: () => string;
+      if (domain.kind === 'path') {
+        const s = sweepPath(formulas, domain, { filter, competitors: opts.competitors, onProgress });
+        json = pathSweepJson(s, query);
+        lines = pathTable(s);
+        svg = () => pathPlot(s);
+      } else {
+        const s = sweepRegion(formulas, domain, { filter, competitors: opts.competitors, onProgress });
+        json = regionSweepJson(s, query);
+        lines = regionTable(s);
+        svg = () => regionPlot(s);
+      }
+      (progress as Progress | null)?.stop();
+      if (typeof opts.json === 'string') writeFileAtomic(opts.json, json);
+      if (opts.plot) writeFileAtomic(opts.plot, svg());
+      process.stdout.write(opts.json === true ? json : `${lines.join('\n')}\n`);
+    });
+}
