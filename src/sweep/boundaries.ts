@@ -8,6 +8,7 @@
 
 import { type CubicMap, junctionOf } from '../maps/cubic-map.ts';
 import type { Equilibrium } from '../solver/result.ts';
+import { lowerDartOfWall } from '../catalogue/evaluate.ts';
 import { t1Neighbour } from './candidates.ts';
 import { type KnownState, type PathContext, extrapolatedPerimeter, nearest, probe } from './probe.ts';
 import type { Boundary } from './types.ts';
@@ -19,6 +20,9 @@ import type { Boundary } from './types.ts';
  */
 const COLLAPSE_HINT = 1e-2;
 
+/** Farthest an extrapolated zero of the collapsing wall may lie beyond the bracket, as a share of the sample spacing. */
+const EXTRAPOLATION_LIMIT = 0.25;
+
 /** Times the bracket is pushed one sample spacing further when the failing sample is certified under the probe threshold. */
 const EXTENSIONS = 3;
 
@@ -27,7 +31,7 @@ const EXTENSIONS = 3;
  * the samples' threshold), to ctx.tolerance. `limit` is the end of the parameter range beyond failAt.
  * Returns null when the equilibrium turns out to exist up to `limit` under the probe threshold.
  */
-export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, failAt: number, failure: Equilibrium | null, limit: number): Boundary | null {
+export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, failAt: number, limit: number): Boundary | null {
   const list: KnownState[] = [ok];
   let a = ok.p;
   let b = failAt;
@@ -41,7 +45,7 @@ export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, fail
     b = next;
     r = probe(ctx, c, b, list);
   }
-  let last: Equilibrium = r.equilibrium ?? failure;
+  let last: Equilibrium = r.equilibrium;
   // bisection: a certified, b not
   while (Math.abs(b - a) > ctx.tolerance) {
     const m = 0.5 * (a + b);
@@ -52,15 +56,32 @@ export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, fail
       last = q.equilibrium;
     }
   }
-  const at = 0.5 * (a + b);
+  let at = 0.5 * (a + b);
   const known = nearest(list, a) as KnownState;
+  const map = ctx.set.candidates[c].cluster.map;
   let status: string = last.status;
   let wall = last.status === 'wall-collapse' ? last.collapsingWall : null;
   if (wall === null && status !== 'cell-collapse') {
-    const shortest = shortestWall(ctx.set.candidates[c].cluster.map, known.state.equilibrium.coords, known.state.areas);
+    const shortest = shortestWall(map, known.state.equilibrium.coords, known.state.areas);
     if (shortest.chord < COLLAPSE_HINT) {
       wall = shortest.wall;
       status = 'wall-collapse';
+    }
+  }
+  // zero modes counted at the sample (near the collapse a softening mode can pass for one)
+  const zeroModes = ok.state.equilibrium.zeroModes ?? 0;
+  if (wall !== null && zeroModes === 0) {
+    // the bisection stops where the probes' collapse threshold is crossed; the wall's chord vanishes
+    // linearly a little further on: extrapolate it to zero from the two nearest certified probes (not
+    // with a zero mode, where the wall's length also depends on how far the free part slid)
+    const near = [...list].sort((x, y) => Math.abs(x.p - a) - Math.abs(y.p - a));
+    const second = near.find((k) => k.p !== near[0].p);
+    if (second !== undefined) {
+      const c1 = chordOf(map, wall, near[0].state.equilibrium.coords);
+      const c2 = chordOf(map, wall, second.state.equilibrium.coords);
+      const p0 = near[0].p - (c1 * (near[0].p - second.p)) / (c1 - c2);
+      const ahead = (p0 - a) * (b - a) >= 0;
+      if (c2 > c1 && Number.isFinite(p0) && ahead && Math.abs(p0 - a) <= EXTRAPOLATION_LIMIT * Math.abs(spacing)) at = p0;
     }
   }
   return {
@@ -72,7 +93,16 @@ export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, fail
     collapsingWall: wall,
     becomes: wall === null ? null : t1Neighbour(ctx.set.candidates[c], wall, ctx.set.ids),
     perimeter: extrapolatedPerimeter(ctx, c, known, at),
+    zeroModes,
   };
+}
+
+/** Chord of wall k (map.wallIndex numbering) in the drawing `coords`. */
+function chordOf(map: CubicMap, k: number, coords: Float64Array): number {
+  const e = lowerDartOfWall(map.twins, k);
+  const u = junctionOf(e);
+  const v = junctionOf(map.twins[e]);
+  return Math.hypot(coords[2 * v] - coords[2 * u], coords[2 * v + 1] - coords[2 * u + 1]);
 }
 
 /** The wall of least chord relative to sqrt of the smaller area beside it (the outside counts as no limit). */

@@ -99,8 +99,10 @@ function checkNode(root: MathNode, label: string, parameters: readonly string[])
         if (!FORMULA_FUNCTIONS.includes(name)) refuse(`the function "${name}"`);
         return;
       }
-      default:
-        refuse(`a ${node.type.replace(/Node$/, '').toLowerCase()} ("${node.toString()}")`);
+      default: {
+        const kind = node.type.replace(/Node$/, '').toLowerCase();
+        refuse(`${/^[aeiou]/.test(kind) ? 'an' : 'a'} ${kind} ("${node.toString()}")`);
+      }
     }
   });
   return parameters.filter((p) => used.has(p));

@@ -7,7 +7,6 @@
 // (transitions.ts) and the existence boundaries of the competitors (boundaries.ts) are then located.
 
 import { UsageError } from '../errors.ts';
-import type { Equilibrium } from '../solver/result.ts';
 import { candidateAreasInto, sweepCandidates } from './candidates.ts';
 import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type PathDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
@@ -49,7 +48,6 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   const states: (TrackedState | null)[][] = candidates.map(() => new Array<TrackedState | null>(count).fill(null));
   const statuses: string[][] = candidates.map(() => new Array<string>(count).fill('skipped'));
   const linked: Uint8Array[] = candidates.map(() => new Uint8Array(count)); // state k continues state k - 1
-  const failures: (Equilibrium | null)[][] = candidates.map(() => new Array(count).fill(null));
   const nextTry = new Int32Array(candidates.length);
   const skip = new Int32Array(candidates.length).fill(1);
   const areasAtSample = (c: number, k: number): Float64Array =>
@@ -60,16 +58,17 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
       const prev = k > 0 ? states[c][k - 1] : null;
       if (prev === null && k < nextTry[c]) continue;
       const areas = areasAtSample(c, k);
-      const step = trackStep(cand.cluster.map, areas, prev, newton, counts, prev === null ? 'cold' : 'warm');
+      // no own state: start from a sibling's (same arrangement, other assignment) at this sample, as a ranking does
+      const start = prev ?? siblingState(c, k);
+      const step = trackStep(cand.cluster.map, areas, start, newton, counts, prev === null ? 'cold' : 'warm');
       statuses[c][k] = step.equilibrium.status;
       if (step.ok) {
         states[c][k] = { areas, equilibrium: step.equilibrium };
-        linked[c][k] = step.continued ? 1 : 0;
+        linked[c][k] = prev !== null && step.continued ? 1 : 0;
         skip[c] = 1;
         if (prev === null && k > 0) backfill(c, k);
         continue;
       }
-      failures[c][k] = step.equilibrium;
       if (prev !== null) {
         // the branch ended here; relaxFrom already tried a cold start, so try again at the next sample
         nextTry[c] = k + 1;
@@ -82,6 +81,14 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
     options.onProgress?.(k + 1, count);
   }
 
+  // the last certified state at sample k of a candidate before c with the same arrangement
+  function siblingState(c: number, k: number): TrackedState | null {
+    for (let j = c - 1; j >= 0 && candidates[j].code === candidates[c].code; j--) {
+      if (states[j][k] !== null) return states[j][k];
+    }
+    return null;
+  }
+
   // follow a candidate found at sample k backwards to where its branch begins
   function backfill(c: number, k: number): void {
     for (let j = k - 1; j >= 0; j--) {
@@ -90,7 +97,6 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
       const step = trackStep(candidates[c].cluster.map, areas, states[c][j + 1], newton, counts, 'warm');
       statuses[c][j] = step.equilibrium.status;
       if (!step.ok) {
-        failures[c][j] = step.equilibrium;
         return;
       }
       states[c][j] = { areas, equilibrium: step.equilibrium };
@@ -149,11 +155,11 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
       const there = states[c][k + 1];
       const joined = here !== null && there !== null && linked[c][k + 1] === 1;
       if (here !== null && !joined) {
-        const b = locateBoundary(ctx, c, { p: xs[k], state: here }, xs[k + 1], failures[c][k + 1], xs[count - 1]);
+        const b = locateBoundary(ctx, c, { p: xs[k], state: here }, xs[k + 1], xs[count - 1]);
         if (b !== null) boundaries.push(b);
       }
       if (there !== null && !joined && statuses[c][k] !== 'skipped') {
-        const b = locateBoundary(ctx, c, { p: xs[k + 1], state: there }, xs[k], failures[c][k], xs[0]);
+        const b = locateBoundary(ctx, c, { p: xs[k + 1], state: there }, xs[k], xs[0]);
         if (b !== null) boundaries.push(b);
       }
     }

@@ -16,7 +16,7 @@ export const BRANCH_PERIMETER = 1e-6;
 
 /** Relaxation counts of a sweep, by kind. */
 export interface RelaxCounts {
-  /** Cold starts (barycentric drawing). */
+  /** Starts with no state of the candidate's own: the barycentric drawing or another assignment's equilibrium of the same arrangement. */
   cold: number;
   /** Warm starts at sample points. */
   warm: number;

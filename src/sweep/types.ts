@@ -54,8 +54,12 @@ export interface Transition {
 /** Where a competitor's equilibrium stops (or starts) existing along a path. */
 export interface Boundary {
   readonly candidate: number;
-  /** Parameter value, located to `tolerance`. */
+  /**
+   * Parameter value: for a wall collapse, where the wall's chord, extrapolated linearly from the two
+   * certified probes nearest the bracket, reaches zero; otherwise the bracket's middle.
+   */
   readonly at: number;
+  /** The last bisection bracket (width at most `tolerance`): certified at one end, not at the other. */
   readonly bracket: readonly [number, number];
   /** Side of `at` on which the equilibrium exists. */
   readonly exists: 'below' | 'above';
@@ -66,6 +70,11 @@ export interface Boundary {
   readonly becomes: { readonly code: string; readonly id: string } | null;
   /** Perimeter of the equilibrium at `at`, extrapolated from the last certified probe. */
   readonly perimeter: number;
+  /**
+   * Zero modes of the certified state at the sample next to the boundary. When positive (e.g. a lens free to slide along its wall)
+   * the boundary depends on where the free part drifted, not only on the areas.
+   */
+  readonly zeroModes: number;
 }
 
 /** A run of the parameter with one winner. */
