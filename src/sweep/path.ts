@@ -1,13 +1,15 @@
 // sweep stage: sweep one parameter along a path: every candidate tracked from sample to sample, winners, transitions and boundaries.
 //
 // At each sample a candidate certified at the previous sample starts from that equilibrium (relaxFrom,
-// which falls back to a cold start); one that was not starts cold, and after a cold failure it is
-// skipped for 1, 2, 4, ... up to maxSkip samples before the next try. When a skipped candidate is found
+// which falls back to a cold start); one that was not starts cold (or from a certified candidate of the
+// same arrangement), and after such a failure it is skipped for 1, 2, 4, ... up to maxSkip samples
+// before the next try, unless a tracked candidate collapses a wall into its arrangement (a T1 swap),
+// which makes it due at once. When a skipped candidate is found
 // again, it is followed backwards with warm starts to where it begins. Transitions between samples
 // (transitions.ts) and the existence boundaries of the competitors (boundaries.ts) are then located.
 
 import { UsageError } from '../errors.ts';
-import { candidateAreasInto, sweepCandidates } from './candidates.ts';
+import { candidateAreasInto, sweepCandidates, t1Neighbour } from './candidates.ts';
 import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type PathDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
 import { rankPlaced } from './order.ts';
@@ -28,7 +30,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   }
   checkFormulasOnDomain(formulas, domain);
   const competitorCount = options.competitors ?? 4;
-  const maxSkip = options.maxSkip ?? 8;
+  const maxSkip = options.maxSkip ?? 16;
   const tolerance = options.tolerance ?? 1e-6;
   if (!(Number.isInteger(competitorCount) && competitorCount >= 1)) throw new UsageError(`Competitors is ${competitorCount} when expected a whole number of at least 1.`);
   if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
@@ -49,6 +51,8 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   const statuses: string[][] = candidates.map(() => new Array<string>(count).fill('skipped'));
   const linked: Uint8Array[] = candidates.map(() => new Uint8Array(count)); // state k continues state k - 1
   const nextTry = new Int32Array(candidates.length);
+  const byCode = new Map<string, number[]>();
+  for (const cand of candidates) byCode.set(cand.code, [...(byCode.get(cand.code) ?? []), cand.index]);
   const skip = new Int32Array(candidates.length).fill(1);
   const areasAtSample = (c: number, k: number): Float64Array =>
     candidateAreasInto(candidates[c], slotValues.subarray(k * m, (k + 1) * m), new Float64Array(candidates[c].slots.length));
@@ -73,6 +77,14 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
         // the branch ended here; relaxFrom already tried a cold start, so try again at the next sample
         nextTry[c] = k + 1;
         skip[c] = 1;
+        // a collapsing wall hands the cluster to its T1 neighbour: try that arrangement's candidates now
+        const wall = step.equilibrium.status === 'wall-collapse' ? step.equilibrium.collapsingWall : null;
+        const neighbour = wall === null ? null : t1Neighbour(cand, wall, set.ids);
+        for (const d of neighbour === null ? [] : byCode.get(neighbour.code) ?? []) {
+          if (states[d][k] !== null || (k > 0 && states[d][k - 1] !== null)) continue;
+          nextTry[d] = Math.min(nextTry[d], d > c ? k : k + 1);
+          skip[d] = 1;
+        }
       } else {
         nextTry[c] = k + skip[c];
         skip[c] = Math.min(2 * skip[c], maxSkip);

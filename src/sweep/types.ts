@@ -13,7 +13,7 @@ export interface SweepOptions {
   filter?: ArrangementFilter;
   /** Candidates ranked within this many at some sample are the competitors (plotted, boundaries located). @default 4 */
   competitors?: number;
-  /** Most samples a candidate that failed from a cold start is skipped before it is tried again. @default 8 */
+  /** Most samples a candidate that failed from a cold start is skipped before it is tried again. @default 16 */
   maxSkip?: number;
   /** Width in the parameter to which transitions and boundaries are located. @default 1e-6 */
   tolerance?: number;
