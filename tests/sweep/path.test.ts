@@ -54,7 +54,7 @@ describe('sweepPath', () => {
     // at a crossing the two perimeters are equal by definition (they are located to 1e-6 in t)
     const cases: [string, PathDomain, number][] = [
       ['1, 1, 1, t', path(0.5, 2, 6), 1], // the standard 4-cell cluster: the odd cell moves from a 3- to a 4-sided cell at t = 1
-      ['1, 1, 1, 1, t', path(0.04, 0.7, 10), 2], // two changes of arrangement between 5.44 and 5.33
+      ['1, 1, 1, 1, t', path(0.045, 0.6, 7), 2], // two changes of arrangement between 5.44 and 5.33
     ];
     for (const [areas, domain, expected] of cases) {
       const s = sweep(areas, domain);
@@ -134,7 +134,7 @@ describe('sweepPath', () => {
   }, 20000);
 
   it('sweepPath winner at every sample equals the winner of rankAreas there (property, random 4-cell paths)', async () => {
-    // property check against the independent ranking; few runs (each is one sweep and five rankings)
+    // property check against the independent ranking; few runs (each is one sweep and four rankings)
     await fc.assert(
       fc.asyncProperty(
         fc.double({ min: 0.3, max: 3, noNaN: true }),
@@ -143,7 +143,7 @@ describe('sweepPath', () => {
         fc.double({ min: 1.5, max: 5, noNaN: true }),
         async (a, b, from, to) => {
           const areas = `1, ${a.toPrecision(6)}, ${b.toPrecision(6)} * t, 1 / t`;
-          const s = sweep(areas, path(from, to, 5));
+          const s = sweep(areas, path(from, to, 4));
           for (let k = 0; k < s.xs.length; k++) {
             const x = s.xs[k];
             const best = await winnerOf(s.formulas.map((f) => f.value({ t: x })));
@@ -154,7 +154,7 @@ describe('sweepPath', () => {
           }
         },
       ),
-      { numRuns: 4, seed: 5 },
+      { numRuns: 3, seed: 5 },
     );
   }, 30000);
 });
