@@ -68,8 +68,10 @@ export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, fail
       status = 'wall-collapse';
     }
   }
-  // zero modes counted at the sample (near the collapse a softening mode can pass for one)
-  const zeroModes = ok.state.equilibrium.zeroModes ?? 0;
+  // zero modes counted at the sample (near the collapse a softening mode can pass for one), and at
+  // least one per lens: a 2-sided cell slides along its wall of constant curvature (design.md §5)
+  const lenses = ctx.set.candidates[c].sides.filter((k) => k === 2).length;
+  const zeroModes = Math.max(ok.state.equilibrium.zeroModes ?? 0, lenses);
   if (wall !== null && zeroModes === 0) {
     // the bisection stops where the probes' collapse threshold is crossed; the wall's chord vanishes
     // linearly a little further on: extrapolate it to zero from the two nearest certified probes (not
