@@ -71,9 +71,10 @@ export function pathTable(s: PathSweep): string[] {
     const b: string[][] = [[parameter.name, 'id', 'sides', 'areas by cell', 'exists', 'perimeter', 'failure beyond']];
     for (const x of s.boundaries) {
       const c = C[x.candidate];
-      const failure = x.status === 'wall-collapse'
+      let failure = x.status === 'wall-collapse'
         ? `wall ${x.collapsingWall} collapses; T1 to ${x.becomes === null ? 'no admissible arrangement' : x.becomes.id}`
         : x.status;
+      if (x.zeroModes > 0) failure += ` (${x.zeroModes} zero mode${x.zeroModes > 1 ? 's' : ''}: depends on where it slid)`;
       b.push([num(x.at, 9), c.id, c.sides.join(''), cellFormulasText(c), x.exists, num(x.perimeter), failure]);
     }
     lines.push(...columns(b, new Set([0, 5])));
