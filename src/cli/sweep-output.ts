@@ -25,6 +25,10 @@ function who(c: SweepCandidate): string {
   return `${c.id} ${cellFormulasText(c)}`;
 }
 
+function plural(n: number, word: string): string {
+  return `${n} ${word}${n === 1 ? '' : 's'}`;
+}
+
 function relaxationText(s: PathSweep | RegionSweep): string {
   const r = s.counts.relaxations;
   return `${r.cold + r.warm + r.probe} relaxations (${r.cold} cold, ${r.warm} warm, ${r.probe} probes)`;
@@ -35,8 +39,8 @@ export function pathTable(s: PathSweep): string[] {
   const C = s.set.candidates;
   const { parameter, samples, log } = s.domain;
   const lines = [
-    `${s.formulas.length} cells, areas ${s.formulas.map((f) => f.source).join(', ')}; ${parameter.name} from ${parameter.from} to ${parameter.to} ` +
-      `(${samples} samples${log ? ', log spacing' : ''}): ${s.counts.arrangements} arrangements, ${s.counts.candidates} candidates, ${relaxationText(s)}`,
+    `${plural(s.formulas.length, 'cell')}, areas ${s.formulas.map((f) => f.source).join(', ')}; ${parameter.name} from ${parameter.from} to ${parameter.to} ` +
+      `(${samples} samples${log ? ', log spacing' : ''}): ${plural(s.counts.arrangements, 'arrangement')}, ${plural(s.counts.candidates, 'candidate')}, ${relaxationText(s)}`,
     '',
     'winner by interval',
   ];
@@ -90,8 +94,8 @@ export function regionTable(s: RegionSweep): string[] {
     ? d.parameters.map((p) => `${p.name} from ${p.from} to ${p.to}`).join(', ') + ` (${d.samples} x ${d.samples} samples${d.log ? ', log spacing' : ''})`
     : `${d.shares.join(' + ')} = ${d.total} (${d.divisions * d.divisions} triangles, ${d.divisions} per side)`;
   const lines = [
-    `${s.formulas.length} cells, areas ${s.formulas.map((f) => f.source).join(', ')}; ${where}: ` +
-      `${s.counts.arrangements} arrangements, ${s.counts.candidates} candidates, ${relaxationText(s)}`,
+    `${plural(s.formulas.length, 'cell')}, areas ${s.formulas.map((f) => f.source).join(', ')}; ${where}: ` +
+      `${plural(s.counts.arrangements, 'arrangement')}, ${plural(s.counts.candidates, 'candidate')}, ${relaxationText(s)}`,
     '',
     'regions (connected samples with one winner)',
   ];

@@ -9,6 +9,7 @@
 // (transitions.ts) and the existence boundaries of the competitors (boundaries.ts) are then located.
 
 import { UsageError } from '../errors.ts';
+import { RANK_LIMIT } from '../catalogue/rank.ts';
 import { candidateAreasInto, sweepCandidates, t1Neighbour } from './candidates.ts';
 import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type PathDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
@@ -22,13 +23,16 @@ import type { Boundary, Interval, PathSweep, Placed, SweepOptions, Transition } 
 /**
  * Sweep the areas `formulas` (one per cell) along `domain`.
  * @throws FormulaError when a formula is not a positive finite area somewhere on the range.
- * @throws UsageError when an option is out of range.
+ * @throws UsageError when an option is out of range or there are more cells than a ranking takes.
  */
 export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, options: SweepOptions = {}): PathSweep {
   if (!(Number.isInteger(domain.samples) && domain.samples >= 2)) {
     throw new UsageError(`Path has ${domain.samples} samples when expected a whole number of at least 2.`);
   }
   checkFormulasOnDomain(formulas, domain);
+  if (formulas.length > RANK_LIMIT) {
+    throw new UsageError(`${formulas.length} cells is above ${RANK_LIMIT} when expected at most ${RANK_LIMIT} cells for a sweep.`);
+  }
   const competitorCount = options.competitors ?? 4;
   const maxSkip = options.maxSkip ?? 16;
   const tolerance = options.tolerance ?? 1e-6;

@@ -7,6 +7,7 @@
 // neighbours where it was missing (breadth first), so a region does not depend on where it was entered.
 
 import { UsageError } from '../errors.ts';
+import { RANK_LIMIT } from '../catalogue/rank.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import { candidateAreasInto, sweepCandidates } from './candidates.ts';
 import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type GridDomain, type TriangleDomain } from './domain.ts';
@@ -64,13 +65,16 @@ export function sampleNeighbours(domain: GridDomain | TriangleDomain): number[][
 /**
  * Sweep the areas `formulas` over a grid of two parameters or a triangle of three shares.
  * @throws FormulaError when a formula is not a positive finite area on the domain.
- * @throws UsageError when an option is out of range.
+ * @throws UsageError when an option is out of range or there are more cells than a ranking takes.
  */
 export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain | TriangleDomain, options: SweepOptions = {}): RegionSweep {
   const maxSkip = options.maxSkip ?? 8;
   if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
   const neighbours = sampleNeighbours(domain);
   checkFormulasOnDomain(formulas, domain);
+  if (formulas.length > RANK_LIMIT) {
+    throw new UsageError(`${formulas.length} cells is above ${RANK_LIMIT} when expected at most ${RANK_LIMIT} cells for a sweep.`);
+  }
   const newton = options.newton;
   const set = sweepCandidates(formulas, options.filter);
   const { candidates } = set;
