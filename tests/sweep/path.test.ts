@@ -78,7 +78,7 @@ describe('sweepPath', () => {
   }, 30000);
 
   it('sweepPath existence boundaries: the wall vanishes linearly there, and rankAreas beyond names the same T1 neighbour', async () => {
-    // a smooth function with a simple zero is linear near it (Taylor's theorem): chord(at - h) is
+    // a smooth function with a simple zero is linear near it (first-order expansion, common practice, no source): chord(at - h) is
     // proportional to h, so chord(2h) / chord(h) = 2 unless `at` is off by a fraction of h.
     // Beyond the boundary the independent ranking must not certify the candidate, and its failure
     // must name the same arrangement for the T1 swap (design.md §5).
