@@ -9,7 +9,8 @@ import { INK, markerSvg, seriesLine, seriesMarker, tint } from './palette.ts';
 import { checkDigits, escapeXml, fixed, formatValue } from './format.ts';
 import { UsageError } from '../errors.ts';
 
-export { renderRegionMap, triangleSamples } from './region-map.ts';
+export { renderRegionMap } from './region-map.ts';
+export { triangleSamples } from '../sweep/triangle-grid.ts';
 export type { RegionMapOptions, RegionArrangement, RectangleGrid, TriangleGrid } from './region-map.ts';
 
 /** One competing arrangement along the path. */

@@ -1,6 +1,6 @@
 // sweep stage: what is varied (a path, a grid of two parameters, or a triangle of three shares) and where it is sampled.
 
-import { triangleSamples } from '../render/region-map.ts';
+import { triangleSamples } from './triangle-grid.ts';
 import { FormulaError, UsageError } from '../errors.ts';
 import { FORMULA_CONSTANTS, FORMULA_FUNCTIONS, type AreaFormula } from './formula.ts';
 
@@ -30,7 +30,7 @@ export interface GridDomain {
 
 /**
  * Three shares a + b + c = total, sampled at the centroids of the divisions^2 small triangles of the
- * barycentric triangle (render/region-map.ts triangleSamples order). Shares are never 0 there.
+ * barycentric triangle (triangle-grid.ts triangleSamples order). Shares are never 0 there.
  */
 export interface TriangleDomain {
   readonly kind: 'triangle';

@@ -1,7 +1,8 @@
 // render tests: renderRegionMap and triangleSamples on small hand-made winner patterns (invented demo data).
 
 import { describe, expect, it } from 'vitest';
-import { renderRegionMap, triangleSamples } from '../../src/render/region-map.ts';
+import { renderRegionMap } from '../../src/render/region-map.ts';
+import { triangleSamples } from '../../src/sweep/triangle-grid.ts';
 import type { RegionArrangement } from '../../src/render/region-map.ts';
 import { UsageError } from '../../src/errors.ts';
 import { doubleBubble, singleBubble, tripleBubble } from './fixtures.ts';
