@@ -30,6 +30,15 @@ export { CATALOGUE_FORMAT, CATALOGUE_VERSION } from './catalogue/types.ts';
 export { EXAMPLES, findExample } from './catalogue/examples.ts';
 export { areaClasses, orbitAssignments, orbitCount } from './catalogue/assign.ts';
 
+// ③b sweeps of area space
+export { type AreaFormula, parseAreaFormulas } from './sweep/formula.ts';
+export { sweepPath } from './sweep/path.ts';
+export { type SweepDomain, type PathDomain, type GridDomain, type TriangleDomain, parseVary, parseShares } from './sweep/domain.ts';
+export { sweepRegion } from './sweep/region.ts';
+export { pathSweepJson, regionSweepJson, SWEEP_FORMAT, SWEEP_VERSION } from './sweep/format.ts';
+export type { SweepOptions, PathSweep, RegionSweep, Transition, Boundary, Interval } from './sweep/types.ts';
+export { triangleSamples } from './sweep/triangle-grid.ts';
+
 // ④ drawings
 export type { ClusterDrawing } from './render/types.ts';
 export { renderClusterSvg, type ClusterSvgOptions } from './render/svg.ts';
