@@ -9,6 +9,9 @@
 // map is a simple internally triangulated disc (no wall has one face on both sides, no face meets a
 // junction twice), so the drawing is a plane straight-line drawing with every triangle positively
 // oriented ("One-to-one piecewise linear mappings over triangulations", Math. Comp. 72 (2003)).
+// NOTE: nested cells come out small (a lens inside a ring can be a millionth of the mean area); the
+// relaxer then draws along a construction path instead (insertion.ts).
+//
 // Each wall is then drawn as the circular arc through its two junctions and its wall node. An arc can
 // swing past a neighbouring wall at a junction where the straight drawing is valid; the walls at such a
 // junction are flattened (bulges halved) until the order holds. Finally the drawing is scaled to the
@@ -27,73 +30,135 @@ export interface Drawing {
   bulges: Float64Array;
 }
 
+// Largest |bulge| of an inner wall in the drawing: a wall node far from a short chord would otherwise
+// give a near-full circle sweeping over its neighbours.
+const MAX_INNER_BULGE = Math.PI / 3;
+
+// Halvings of the bulges at a junction whose arcs leave it out of the map's order (2^-12 is straight
+// for any purpose here).
+const REPAIR_ROUNDS = 12;
+
+/** Working arrays of one junction count (every map with V junctions has the same sizes). */
+interface EmbedWorkspace {
+  x: Float64Array;
+  y: Float64Array;
+  fixed: Uint8Array;
+  degree: Float64Array;
+  edgeA: Int32Array;
+  edgeB: Int32Array;
+  r: Float64Array;
+  p: Float64Array;
+  q: Float64Array;
+  wallOf: Int32Array;
+}
+
+const WORKSPACES = new Map<number, EmbedWorkspace>();
+
+function workspaceFor(junctions: number, walls: number, cells: number, darts: number): EmbedWorkspace {
+  let ws = WORKSPACES.get(junctions);
+  if (!ws) {
+    const nodes = junctions + walls + cells;
+    ws = {
+      x: new Float64Array(nodes),
+      y: new Float64Array(nodes),
+      fixed: new Uint8Array(nodes),
+      degree: new Float64Array(nodes),
+      edgeA: new Int32Array(3 * darts),
+      edgeB: new Int32Array(3 * darts),
+      r: new Float64Array(nodes),
+      p: new Float64Array(nodes),
+      q: new Float64Array(nodes),
+      wallOf: new Int32Array(darts),
+    };
+    WORKSPACES.set(junctions, ws);
+  }
+  return ws;
+}
+
 /**
  * Draw `map` (face 0 = outside) so that its cells enclose `totalArea` in all. The circle (no darts)
  * gives empty arrays. The map must be 2-connected (every admissible cluster map is).
  */
 export function embedCluster(map: CubicMap, totalArea: number): Drawing {
+  const coords = new Float64Array(2 * map.junctionCount);
+  const bulges = new Float64Array(map.twins.length / 2);
+  embedClusterInto(map, totalArea, coords, bulges);
+  return { coords, bulges };
+}
+
+/** embedCluster writing into caller buffers: coords (length 2V) and bulges (length E). */
+export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float64Array, bulges: Float64Array): void {
   const { twins, faceOf, faceStarts, faceDarts } = map;
   const junctions = map.junctionCount;
-  const walls = twins.length / 2;
-  if (junctions === 0) return { coords: new Float64Array(0), bulges: new Float64Array(0) };
+  const darts = twins.length;
+  const walls = darts / 2;
+  if (junctions === 0) return;
   const cells = map.faceCount - 1;
   const nodes = junctions + walls + cells;
-  const wallOf = map.wallIndex();
+  const ws = workspaceFor(junctions, walls, cells, darts);
+  const { x, y, fixed, degree, edgeA, edgeB, wallOf } = ws;
+  // wall numbers as map.wallIndex() gives them, without its allocation
+  for (let e = 0, k = 0; e < darts; e++) {
+    const t = twins[e];
+    if (e < t) {
+      wallOf[e] = k;
+      wallOf[t] = k;
+      k++;
+    }
+  }
   const centre = (f: number): number => (f === 0 ? -1 : junctions + walls + f - 1);
 
   // place the outside's boundary on the circle, clockwise (the outside is walked clockwise)
   const radius = Math.sqrt(totalArea / Math.PI);
-  const x = new Float64Array(nodes);
-  const y = new Float64Array(nodes);
-  const fixed = new Uint8Array(nodes);
+  x.fill(0, 0, nodes);
+  y.fill(0, 0, nodes);
+  fixed.fill(0, 0, nodes);
   const outer = faceStarts[1] - faceStarts[0];
   for (let i = 0; i < outer; i++) {
     const e = faceDarts[faceStarts[0] + i];
-    const pair = [(e / 3) | 0, junctions + wallOf[e]];
     for (let s = 0; s < 2; s++) {
+      const node = s === 0 ? (e / 3) | 0 : junctions + wallOf[e];
       const angle = (-2 * Math.PI * (2 * i + s)) / (2 * outer);
-      x[pair[s]] = radius * Math.cos(angle);
-      y[pair[s]] = radius * Math.sin(angle);
-      fixed[pair[s]] = 1;
+      x[node] = radius * Math.cos(angle);
+      y[node] = radius * Math.sin(angle);
+      fixed[node] = 1;
     }
   }
 
-  // the subdivision's edges, each listed once: per dart, junction-wall node, junction-centre (its
-  // corner) and wall node-centre (its side)
-  const edgeA = new Int32Array(3 * twins.length);
-  const edgeB = new Int32Array(3 * twins.length);
+  // the subdivision's edges, each listed once: per dart, the half of its wall at its junction
+  // (junction - wall node), and for a cell's dart its corner (junction - centre) and side (wall node -
+  // centre)
   let m = 0;
-  for (let e = 0; e < twins.length; e++) {
+  for (let e = 0; e < darts; e++) {
     const v = (e / 3) | 0;
     const w = junctions + wallOf[e];
-    const c = centre(faceOf[e]);
+    const f = faceOf[e];
     edgeA[m] = v;
     edgeB[m++] = w;
-    if (c >= 0) {
-      edgeA[m] = v;
-      edgeB[m++] = c;
-      edgeA[m] = w;
-      edgeB[m++] = c;
-    }
+    if (f === 0) continue;
+    const c = centre(f);
+    edgeA[m] = v;
+    edgeB[m++] = c;
+    edgeA[m] = w;
+    edgeB[m++] = c;
   }
 
   // solve the Laplacian system for the free nodes by conjugate gradients (it is symmetric positive
   // definite: every free node is joined to the fixed boundary through the subdivision)
-  const degree = new Float64Array(nodes);
+  degree.fill(0, 0, nodes);
   for (let i = 0; i < m; i++) {
     degree[edgeA[i]]++;
     degree[edgeB[i]]++;
   }
-  for (const pos of [x, y]) conjugateGradient(pos, fixed, degree, edgeA, edgeB, m);
+  conjugateGradient(ws, x, nodes, m);
+  conjugateGradient(ws, y, nodes, m);
 
   // draw each wall through its node
-  const coords = new Float64Array(2 * junctions);
   for (let v = 0; v < junctions; v++) {
     coords[2 * v] = x[v];
     coords[2 * v + 1] = y[v];
   }
-  const bulges = new Float64Array(walls);
-  for (let e = 0; e < twins.length; e++) {
+  for (let e = 0; e < darts; e++) {
     const t = twins[e];
     if (e > t) continue;
     const a = (e / 3) | 0;
@@ -107,7 +172,7 @@ export function embedCluster(map: CubicMap, totalArea: number): Drawing {
   for (let round = 0; round < REPAIR_ROUNDS; round++) {
     let bad = false;
     for (let v = 0; v < junctions; v++) {
-      if (inOrder(map, wallOf, coords, bulges, v)) continue;
+      if (inOrder(twins, wallOf, coords, bulges, v)) continue;
       bad = true;
       for (let i = 0; i < 3; i++) bulges[wallOf[3 * v + i]] *= 0.5;
     }
@@ -115,7 +180,7 @@ export function embedCluster(map: CubicMap, totalArea: number): Drawing {
   }
   // scale to the requested total area (flattened outer walls no longer follow the circle)
   let area = 0;
-  for (let e = 0; e < twins.length; e++) {
+  for (let e = 0; e < darts; e++) {
     if (faceOf[e] !== 0) continue;
     // the outside is walked clockwise, so its signed area is minus the cluster's
     const a = (e / 3) | 0;
@@ -126,70 +191,51 @@ export function embedCluster(map: CubicMap, totalArea: number): Drawing {
     area -= 0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b]) - c2 * h;
   }
   const stretch = Math.sqrt(totalArea / area);
-  for (let i = 0; i < coords.length; i++) coords[i] *= stretch;
-  return { coords, bulges };
+  for (let i = 0; i < 2 * junctions; i++) coords[i] *= stretch;
 }
 
-// Largest |bulge| of an inner wall in the drawing: a wall node far from a short chord would otherwise
-// give a near-full circle sweeping over its neighbours.
-const MAX_INNER_BULGE = Math.PI / 3;
-
-// Halvings of the bulges at a junction whose arcs leave it out of the map's order (2^-12 is straight
-// for any purpose here).
-const REPAIR_ROUNDS = 12;
-
 // Whether the three arcs at junction v leave it in counter-clockwise order (darts 3v, 3v+1, 3v+2).
-function inOrder(map: CubicMap, wallOf: Int32Array, coords: Float64Array, bulges: Float64Array, v: number): boolean {
-  const { twins } = map;
-  const angles = [0, 0, 0];
+function inOrder(twins: Int32Array, wallOf: Int32Array, coords: Float64Array, bulges: Float64Array, v: number): boolean {
+  let a0 = 0;
+  let d1 = 0;
+  const TAU = 2 * Math.PI;
   for (let i = 0; i < 3; i++) {
     const e = 3 * v + i;
     const w = (twins[e] / 3) | 0;
     const t = e < twins[e] ? bulges[wallOf[e]] : -bulges[wallOf[e]];
-    angles[i] = Math.atan2(coords[2 * w + 1] - coords[2 * v + 1], coords[2 * w] - coords[2 * v]) + t;
+    const angle = Math.atan2(coords[2 * w + 1] - coords[2 * v + 1], coords[2 * w] - coords[2 * v]) + t;
+    if (i === 0) {
+      a0 = angle;
+      continue;
+    }
+    const d = (((angle - a0) % TAU) + TAU) % TAU;
+    if (i === 1) d1 = d;
+    else return d1 > 0 && d1 < d;
   }
-  const turn = (x: number): number => ((x % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
-  const d1 = turn(angles[1] - angles[0]);
-  const d2 = turn(angles[2] - angles[0]);
-  return d1 > 0 && d1 < d2;
+  return false;
 }
 
-// Solve (D - A) pos = 0 on the free nodes with the fixed nodes as boundary values, in place.
-// CG converges in at most (number of free nodes) steps in exact arithmetic; twice that bounds it here.
-function conjugateGradient(
-  pos: Float64Array, fixed: Uint8Array, degree: Float64Array, edgeA: Int32Array, edgeB: Int32Array, m: number,
-): void {
-  const n = pos.length;
-  const r = new Float64Array(n);
-  const p = new Float64Array(n);
-  const q = new Float64Array(n);
-  // r = -(L pos) on free nodes
-  const apply = (src: Float64Array, dst: Float64Array, freeOnly: boolean): void => {
-    for (let i = 0; i < n; i++) dst[i] = freeOnly && fixed[i] ? 0 : degree[i] * src[i];
-    for (let i = 0; i < m; i++) {
-      const a = edgeA[i];
-      const b = edgeB[i];
-      const sa = freeOnly && fixed[a] ? 0 : src[a];
-      const sb = freeOnly && fixed[b] ? 0 : src[b];
-      dst[a] -= sb;
-      dst[b] -= sa;
-    }
-    for (let i = 0; i < n; i++) if (fixed[i]) dst[i] = 0;
-  };
-  for (let i = 0; i < n; i++) if (!fixed[i]) pos[i] = 0;
-  apply(pos, r, false);
+// Solve (D - A) pos = 0 on the free nodes with the fixed nodes as boundary values, in place, starting
+// from the free nodes' current values. CG converges in at most (number of free nodes) steps in exact
+// arithmetic; twice that bounds it here.
+function conjugateGradient(ws: EmbedWorkspace, pos: Float64Array, n: number, m: number): void {
+  const { r, p, q, fixed } = ws;
+  // r = -(L pos) on the free nodes
+  laplacianInto(ws, pos, r, n, m, false);
   let rr = 0;
-  let bb = 0;
+  let scale = 0;
   for (let i = 0; i < n; i++) {
     r[i] = -r[i];
     p[i] = r[i];
     rr += r[i] * r[i];
+    if (fixed[i]) scale += pos[i] * pos[i] * ws.degree[i] * ws.degree[i];
   }
-  bb = rr;
-  for (let it = 0; it < 2 * n && rr > 1e-30 * bb; it++) {
-    apply(p, q, true);
+  const stop = 1e-28 * Math.max(scale, 1e-300);
+  for (let it = 0; it < 2 * n && rr > stop; it++) {
+    laplacianInto(ws, p, q, n, m, true);
     let pq = 0;
     for (let i = 0; i < n; i++) pq += p[i] * q[i];
+    if (!(pq > 0)) break;
     const alpha = rr / pq;
     let next = 0;
     for (let i = 0; i < n; i++) {
@@ -201,4 +247,19 @@ function conjugateGradient(
     rr = next;
     for (let i = 0; i < n; i++) p[i] = r[i] + beta * p[i];
   }
+}
+
+// dst = L src on the free rows (0 on fixed rows); with freeOnly the fixed entries of src count as 0.
+function laplacianInto(ws: EmbedWorkspace, src: Float64Array, dst: Float64Array, n: number, m: number, freeOnly: boolean): void {
+  const { fixed, degree, edgeA, edgeB } = ws;
+  for (let i = 0; i < n; i++) dst[i] = freeOnly && fixed[i] ? 0 : degree[i] * src[i];
+  for (let i = 0; i < m; i++) {
+    const a = edgeA[i];
+    const b = edgeB[i];
+    const sa = freeOnly && fixed[a] ? 0 : src[a];
+    const sb = freeOnly && fixed[b] ? 0 : src[b];
+    dst[a] -= sb;
+    dst[b] -= sa;
+  }
+  for (let i = 0; i < n; i++) if (fixed[i]) dst[i] = 0;
 }

@@ -1,11 +1,12 @@
-// solver stage: inertia of a dense symmetric matrix by a symmetric indefinite LDL^T factorisation.
+// solver stage: symmetric indefinite LDL^T factorisation of a dense matrix, its solve and its inertia.
 //
 // Diagonal pivoting with 1x1 and 2x2 pivots chosen by the partial pivoting test with
 // alpha = (1 + sqrt 17) / 8, which bounds element growth ("Matrix Computations", 4th ed., 2013, §4.4;
 // "Some stable methods for calculating inertia and solving symmetric linear systems", Math. Comp. 31
-// (1977)). By the law of inertia, P A P^T = L D L^T has the inertia of D:
-// a 1x1 pivot counts by its sign, a 2x2 pivot (chosen only when its determinant is negative) counts
-// one positive and one negative eigenvalue unless one of them is below the zero threshold.
+// (1977)). P A P^T = L D L^T with L unit lower triangular (identity on each 2x2 block) and D block
+// diagonal; by the law of inertia A has the inertia of D: a 1x1 pivot counts by its sign, a 2x2 pivot
+// (chosen only when its determinant is negative) by the signs of its two eigenvalues, and a pivot
+// eigenvalue within the zero threshold counts as zero.
 
 const ALPHA = (1 + Math.sqrt(17)) / 8;
 
@@ -19,13 +20,35 @@ export interface Inertia {
   positive: number;
 }
 
+// Scratch columns of the factorisation (grown to the largest order seen).
+let COLUMN = new Float64Array(64);
+let COLUMN2 = new Float64Array(64);
+
 /**
- * Inertia of the symmetric n x n row-major matrix `a`, which is overwritten. A pivot eigenvalue whose
- * magnitude is at most `zeroTolerance` times the largest |entry| of `a` counts as zero.
+ * Factor the symmetric n x n row-major matrix `a` in place, reading and writing only its lower
+ * triangle (the upper one is left as it was): afterwards the strict lower triangle holds L and the
+ * diagonal, with the first subdiagonal entry of each 2x2 block, holds D. pivots[k] records the step:
+ * for a 1x1 pivot the row swapped into k (k itself when none), for a 2x2 pivot on k, k + 1:
+ * pivots[k] = -1 and pivots[k + 1] the row swapped into k + 1. A pivot eigenvalue whose magnitude is at
+ * most `zeroTolerance` times the largest |entry| counts as zero. Writes the inertia into `out`.
  */
-export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: number): Inertia {
+export function symmetricFactorInto(
+  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia,
+): Inertia {
+  if (COLUMN.length < n) {
+    COLUMN = new Float64Array(2 * n);
+    COLUMN2 = new Float64Array(2 * n);
+  }
+  const col = COLUMN;
+  const col2 = COLUMN2;
   let scale = 0;
-  for (let i = 0, m = n * n; i < m; i++) scale = Math.max(scale, Math.abs(a[i]));
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    for (let j = 0; j <= i; j++) {
+      const v = Math.abs(a[ri + j]);
+      if (!(v <= scale)) scale = v;
+    }
+  }
   const zeroLevel = zeroTolerance * scale;
   let negative = 0;
   let zero = 0;
@@ -35,23 +58,9 @@ export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: numb
     else if (d < 0) negative++;
     else positive++;
   };
-  const swap = (i: number, j: number): void => {
-    // symmetric permutation: swap rows i and j, then columns i and j
-    if (i === j) return;
-    for (let c = 0; c < n; c++) {
-      const tmp = a[i * n + c];
-      a[i * n + c] = a[j * n + c];
-      a[j * n + c] = tmp;
-    }
-    for (let r = 0; r < n; r++) {
-      const tmp = a[r * n + i];
-      a[r * n + i] = a[r * n + j];
-      a[r * n + j] = tmp;
-    }
-  };
   let k = 0;
   while (k < n) {
-    // find the largest off-diagonal entry of column k below the diagonal
+    // find the largest entry of column k below the diagonal
     const akk = Math.abs(a[k * n + k]);
     let r = k;
     let colmax = 0;
@@ -62,38 +71,58 @@ export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: numb
         r = i;
       }
     }
-    // Is the column already zero? Then the pivot is a (zero or not) 1x1 pivot with nothing to eliminate.
-    if (colmax === 0) {
-      count(a[k * n + k]);
-      k++;
-      continue;
-    }
     let size = 1;
-    if (akk < ALPHA * colmax) {
+    let swapWith = k;
+    if (colmax > 0 && akk < ALPHA * colmax) {
+      // largest entry of row r of the trailing matrix, off its diagonal
       let rowmax = 0;
-      for (let j = k; j < n; j++) if (j !== r) rowmax = Math.max(rowmax, Math.abs(a[r * n + j]));
+      const rr = r * n;
+      for (let j = k; j < r; j++) {
+        const v = Math.abs(a[rr + j]);
+        if (v > rowmax) rowmax = v;
+      }
+      for (let j = r + 1; j < n; j++) {
+        const v = Math.abs(a[j * n + r]);
+        if (v > rowmax) rowmax = v;
+      }
       if (akk * rowmax >= ALPHA * colmax * colmax) {
         size = 1;
-      } else if (Math.abs(a[r * n + r]) >= ALPHA * rowmax) {
-        swap(k, r);
+      } else if (Math.abs(a[rr + r]) >= ALPHA * rowmax) {
+        swapWith = r;
       } else {
-        swap(k + 1, r);
         size = 2;
+        swapWith = r;
       }
     }
     if (size === 1) {
+      swapLower(a, n, k, swapWith);
+      pivots[k] = swapWith;
       const d = a[k * n + k];
       count(d);
+      // Is the pivot zero? Leave its column (the matrix is singular; a solve is meaningless).
+      if (d === 0) {
+        k++;
+        continue;
+      }
+      for (let i = k + 1; i < n; i++) col[i] = a[i * n + k];
+      const inv = 1 / d;
       for (let i = k + 1; i < n; i++) {
-        const l = a[i * n + k] / d;
-        if (l === 0) continue;
-        for (let j = k + 1; j < n; j++) a[i * n + j] -= l * a[k * n + j];
+        const x = col[i];
+        if (x === 0) continue;
+        const l = x * inv;
+        const ri = i * n;
+        for (let j = k + 1; j <= i; j++) a[ri + j] -= l * col[j];
+        a[ri + k] = l;
       }
       k++;
     } else {
+      swapLower(a, n, k + 1, swapWith);
+      pivots[k] = -1;
+      pivots[k + 1] = swapWith;
+      const k1 = k + 1;
       const d11 = a[k * n + k];
-      const d21 = a[(k + 1) * n + k];
-      const d22 = a[(k + 1) * n + k + 1];
+      const d21 = a[k1 * n + k];
+      const d22 = a[k1 * n + k1];
       // eigenvalues of the 2x2 pivot block
       const mean = 0.5 * (d11 + d22);
       const rad = Math.hypot(0.5 * (d11 - d22), d21);
@@ -101,15 +130,130 @@ export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: numb
       count(mean + rad);
       const det = d11 * d22 - d21 * d21;
       for (let i = k + 2; i < n; i++) {
-        const x = a[i * n + k];
-        const y = a[i * n + k + 1];
+        col[i] = a[i * n + k];
+        col2[i] = a[i * n + k1];
+      }
+      for (let i = k + 2; i < n; i++) {
+        const x = col[i];
+        const y = col2[i];
         // [l1 l2] = [x y] D^-1
         const l1 = (x * d22 - y * d21) / det;
         const l2 = (y * d11 - x * d21) / det;
-        for (let j = k + 2; j < n; j++) a[i * n + j] -= l1 * a[k * n + j] + l2 * a[(k + 1) * n + j];
+        const ri = i * n;
+        for (let j = k + 2; j <= i; j++) a[ri + j] -= l1 * col[j] + l2 * col2[j];
+        a[ri + k] = l1;
+        a[ri + k1] = l2;
       }
       k += 2;
     }
   }
-  return { negative, zero, positive };
+  out.negative = negative;
+  out.zero = zero;
+  out.positive = positive;
+  return out;
+}
+
+/** Solve A x = b in place in b, with `a` and `pivots` from symmetricFactorInto (A nonsingular). */
+export function symmetricSolveInto(a: Float64Array, n: number, pivots: Int32Array, b: Float64Array): void {
+  // b <- P b
+  for (let k = 0; k < n; k++) {
+    const p = pivots[k];
+    if (p >= 0 && p !== k) {
+      const tmp = b[k];
+      b[k] = b[p];
+      b[p] = tmp;
+    }
+  }
+  // forward substitution with L (unit lower, identity on the 2x2 blocks)
+  for (let k = 0; k < n; k++) {
+    const two = pivots[k] === -1;
+    const x = b[k];
+    const y = two ? b[k + 1] : 0;
+    const start = two ? k + 2 : k + 1;
+    for (let i = start; i < n; i++) {
+      const ri = i * n;
+      b[i] -= a[ri + k] * x + (two ? a[ri + k + 1] * y : 0);
+    }
+    if (two) k++;
+  }
+  // the block diagonal D
+  for (let k = 0; k < n; k++) {
+    if (pivots[k] === -1) {
+      const d11 = a[k * n + k];
+      const d21 = a[(k + 1) * n + k];
+      const d22 = a[(k + 1) * n + k + 1];
+      const det = d11 * d22 - d21 * d21;
+      const x = b[k];
+      const y = b[k + 1];
+      b[k] = (x * d22 - y * d21) / det;
+      b[k + 1] = (y * d11 - x * d21) / det;
+      k++;
+    } else {
+      b[k] /= a[k * n + k];
+    }
+  }
+  // back substitution with L^T
+  for (let k = n - 1; k >= 0; k--) {
+    const second = k > 0 && pivots[k - 1] === -1;
+    const first = second ? k - 1 : k;
+    const start = k + 1;
+    let s0 = b[first];
+    let s1 = second ? b[k] : 0;
+    for (let i = start; i < n; i++) {
+      const ri = i * n;
+      s0 -= a[ri + first] * b[i];
+      if (second) s1 -= a[ri + k] * b[i];
+    }
+    b[first] = s0;
+    if (second) {
+      b[k] = s1;
+      k--;
+    }
+  }
+  // x <- P^T b, undoing the swaps in reverse order
+  for (let k = n - 1; k >= 0; k--) {
+    const p = pivots[k];
+    if (p >= 0 && p !== k) {
+      const tmp = b[k];
+      b[k] = b[p];
+      b[p] = tmp;
+    }
+  }
+}
+
+/**
+ * Inertia of the symmetric n x n row-major matrix `a`, which is overwritten. A pivot eigenvalue whose
+ * magnitude is at most `zeroTolerance` times the largest |entry| of `a` counts as zero.
+ */
+export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: number): Inertia {
+  return symmetricFactorInto(a, n, new Int32Array(n), zeroTolerance, { negative: 0, zero: 0, positive: 0 });
+}
+
+// Symmetric permutation of rows and columns i < j, in lower-triangle storage.
+function swapLower(a: Float64Array, n: number, i: number, j: number): void {
+  if (i === j) return;
+  const ri = i * n;
+  const rj = j * n;
+  // the rows left of column i
+  for (let c = 0; c < i; c++) {
+    const tmp = a[ri + c];
+    a[ri + c] = a[rj + c];
+    a[rj + c] = tmp;
+  }
+  // column i between the two rows against row j left of column j
+  for (let r = i + 1; r < j; r++) {
+    const tmp = a[r * n + i];
+    a[r * n + i] = a[rj + r];
+    a[rj + r] = tmp;
+  }
+  // the columns below row j
+  for (let r = j + 1; r < n; r++) {
+    const rr = r * n;
+    const tmp = a[rr + i];
+    a[rr + i] = a[rr + j];
+    a[rr + j] = tmp;
+  }
+  const tmp = a[ri + i];
+  a[ri + i] = a[rj + j];
+  a[rj + j] = tmp;
 }

@@ -1,26 +1,31 @@
-// solver stage: relax a cluster to its equilibrium by damped Newton's method on the KKT system.
+// solver stage: relax a cluster to its equilibrium: a first drawing, a constrained Newton descent, a verdict.
 //
 // Pipeline of one call (design.md §5):
 //   1. normalise: lengths in units of sqrt(mean target area), so the mean cell area is 1;
-//   2. start from the barycentric drawing (arcs/embed.ts) or from a previous answer (relaxFrom), with
-//      pressures fitted to the Laplace-Young law by least squares;
-//   3. damped Newton: solve K d = -r with the bordered Jacobian K (rigid motions removed by three
-//      constraint rows), regularised by mu I on the geometry block with mu = min(MU_MAX, |r|), which
-//      vanishes at convergence and keeps the step defined at a real zero mode (a lens sliding along its
-//      wall); steps are capped, then backtracked until the residual's 2-norm falls (Armijo test);
-//   4. when that fails, continue in the areas from the start's own areas to the targets (geometric
-//      interpolation), each step Newton-solved, halving a step that fails;
-//   5. classify and certify with the independent checkEquilibrium; the inertia of K gives the index.
+//   2. start from the barycentric drawing (arcs/embed.ts), or from the construction-path drawing
+//      (arcs/insertion.ts) when the barycentric one draws a cell below SMALL_START of its area (nested
+//      cells: the barycentric drawing of a lens inside a ring comes out a millionth of its size), or
+//      from a previous answer (relaxFrom);
+//   3. descend (descent.ts): constrained Newton steps on the augmented penalty energy, each keeping
+//      the shape's Hessian positive definite on the area constraints, until the equations hold to
+//      rounding or a wall shrinks to zero length (a T1 collapse);
+//   4. when that does not end, begin again from the other drawing;
+//   5. classify and certify with the independent checkEquilibrium; the inertia of the step's matrix at
+//      the answer gives the stability index and the zero modes.
 
 import type { CubicMap } from '../maps/cubic-map.ts';
-import { embedCluster } from '../arcs/embed.ts';
+import { embedClusterInto } from '../arcs/embed.ts';
+import { drawByInsertionInto } from '../arcs/insertion.ts';
 import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
-import { symmetricInertia } from './ldlt.ts';
-import { luFactorInto, luSolveInto } from './lu.ts';
+import { descend } from './descent.ts';
+import { factorStepInto, rigidInto } from './kkt.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
-import { type ClusterProblem, cellAreasInto, jacobianInto, problemOf, residualInto } from './residual.ts';
-import type { Equilibrium, EquilibriumStatus } from './result.ts';
+import { penaltyGradientInto, perimeterInto } from './penalty.ts';
+import { type ClusterProblem, cellAreasInto, problemOf } from './residual.ts';
+import type { Equilibrium } from './result.ts';
+import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
+import { type Workspace, workspaceFor } from './workspace.ts';
 
 /** A previous answer's geometry, the start of relaxFrom (caller's units). */
 export interface EquilibriumStart {
@@ -32,420 +37,61 @@ export interface EquilibriumStart {
   pressures: Float64Array;
 }
 
-// Largest and smallest regularisation added to the geometry block of K. The floor keeps K + mu I
-// conditioned at a zero mode (an error of eps/mu along it costs (eps/mu)^2 in the residual) and slows
-// the other directions only by a factor mu / |eigenvalue|.
-const MU_MAX = 1e-3;
-const MU_MIN = 1e-9;
-// Smallest LU pivot ratio accepted before the regularisation is raised.
-const PIVOT_RATIO = 1e-15;
-// Backtracking halvings per Newton step.
-const LINE_SEARCH = 30;
-// Bulges are kept inside (-pi, pi) by this margin.
-const BULGE_LIMIT = Math.PI - 1e-6;
-// A stalled solve whose residual is this small is at the rounding floor: accept it for certification.
-const FLOOR = 1e-10;
-// Convergence of an intermediate continuation solve (plain largest residual entry).
-const PATH_TOLERANCE = 1e-8;
-// Stall test: every STALL_WINDOW iterations the residual's 2-norm must have fallen below STALL_RATIO
-// times its value STALL_WINDOW iterations before.
-const STALL_WINDOW = 6;
-const STALL_RATIO = 0.9;
-// A cell pinches off when all its walls are below this many collapse lengths while one collapses.
-const COLLAPSE_SPREAD = 10;
-// Smallest continuation step (fraction of the path) before the continuation gives up.
-const MIN_CONTINUATION_STEP = 1 / 512;
-
-/** Working arrays for one problem size; allocated once per junction count and reused. */
-interface Workspace {
-  z: Float64Array;
-  trial: Float64Array;
-  saved: Float64Array;
-  initial: Float64Array;
-  offset: Float64Array;
-  r: Float64Array;
-  rTrial: Float64Array;
-  step: Float64Array;
-  jac: Float64Array;
-  pivots: Int32Array;
-  targets: Float64Array;
-  startAreas: Float64Array;
-  goal: Float64Array;
-  normal: Float64Array;
-}
-
-const WORKSPACES = new Map<number, Workspace>();
-
-function workspaceFor(problem: ClusterProblem): Workspace {
-  const key = problem.junctions;
-  let ws = WORKSPACES.get(key);
-  if (!ws) {
-    const { size, order, cells } = problem;
-    ws = {
-      z: new Float64Array(size),
-      trial: new Float64Array(size),
-      saved: new Float64Array(size),
-      initial: new Float64Array(size),
-      offset: new Float64Array(size),
-      r: new Float64Array(size),
-      rTrial: new Float64Array(size),
-      step: new Float64Array(order),
-      jac: new Float64Array(order * order),
-      pivots: new Int32Array(order),
-      targets: new Float64Array(cells),
-      startAreas: new Float64Array(cells),
-      goal: new Float64Array(cells),
-      normal: new Float64Array(cells * cells + cells),
-    };
-    WORKSPACES.set(key, ws);
-  }
-  return ws;
-}
-
-/** Why one Newton solve stopped ('collapse': a wall's chord fell below the collapse length). */
-type SolveEnd = 'converged' | 'stalled' | 'max-iterations' | 'non-finite' | 'collapse';
-
-interface SolveReport {
-  end: SolveEnd;
-  iterations: number;
-}
-
-function norm2(v: Float64Array, n: number): number {
-  let s = 0;
-  for (let i = 0; i < n; i++) s += v[i] * v[i];
-  return Math.sqrt(s);
-}
-
-// Residual of the homotopy at z: the KKT residual less `weight` times the start's residual on the
-// geometry rows (weight 0: the true residual). Returns the convergence measure: residualInto's scaled
-// maximum for weight 0, the plain maximum otherwise.
-function homotopyInto(
-  problem: ClusterProblem, z: Float64Array, targets: Float64Array, offset: Float64Array, weight: number,
-  out: Float64Array,
-): number {
-  const worst = residualInto(problem, z, targets, out);
-  if (weight === 0) return worst;
-  const geometry = 2 * problem.junctions + problem.walls;
-  let m = 0;
-  for (let i = 0; i < geometry; i++) {
-    out[i] -= weight * offset[i];
-    const a = Math.abs(out[i]);
-    if (!(a <= m)) m = Number.isNaN(a) ? Infinity : a;
-  }
-  for (let i = geometry; i < problem.size; i++) {
-    const a = Math.abs(out[i]);
-    if (!(a <= m)) m = Number.isNaN(a) ? Infinity : a;
-  }
-  return m;
-}
-
-// Newton's method from ws.z towards the normalised targets (with the homotopy offset times `weight`
-// on the geometry rows); ws.z holds the last accepted state.
-function solve(
-  problem: ClusterProblem, ws: Workspace, targets: Float64Array, weight: number, opt: ResolvedNewtonOptions,
-): SolveReport {
-  const { size, order, junctions, walls } = problem;
-  const geometry = 2 * junctions + walls;
-  const t0 = 2 * junctions;
-  const tolerance = weight === 0 ? opt.tolerance : PATH_TOLERANCE;
-  let { z, trial, r, rTrial } = ws;
-  const { step, jac, pivots, offset } = ws;
-  let worst = homotopyInto(problem, z, targets, offset, weight, r);
-  let merit = norm2(r, size);
-  let iterations = 0;
-  let end: SolveEnd = 'max-iterations';
-  let before = Infinity; // merit STALL_WINDOW iterations ago
-  while (iterations < opt.maxIterations) {
-    if (!Number.isFinite(merit)) {
-      end = 'non-finite';
-      break;
-    }
-    if (worst <= tolerance) {
-      end = 'converged';
-      break;
-    }
-    if (shortestWall(problem, z, targets).chord < opt.collapseLength) {
-      end = 'collapse';
-      break;
-    }
-    if (iterations % STALL_WINDOW === 0) {
-      // Has the residual barely moved over the last few iterations? Newton has stalled.
-      if (merit > STALL_RATIO * before) {
-        end = 'stalled';
-        break;
-      }
-      before = merit;
-    }
-    iterations++;
-    // factor K + mu I (geometry block), raising mu when K is numerically singular
-    let mu = Math.min(MU_MAX, Math.max(MU_MIN, worst));
-    let factored = false;
-    for (let attempt = 0; attempt < 4 && !factored; attempt++, mu *= 100) {
-      jacobianInto(problem, z, jac);
-      for (let i = 0; i < geometry; i++) jac[i * order + i] += mu;
-      factored = luFactorInto(jac, order, pivots) > PIVOT_RATIO;
-    }
-    if (!factored) {
-      end = 'stalled';
-      break;
-    }
-    for (let i = 0; i < size; i++) step[i] = -r[i];
-    step[size] = step[size + 1] = step[size + 2] = 0;
-    luSolveInto(jac, order, pivots, step);
-    // cap the step: bulges by maxBulgeStep, junction moves by maxMoveStep
-    let scale = 1;
-    let dt = 0;
-    for (let i = t0; i < geometry; i++) dt = Math.max(dt, Math.abs(step[i]));
-    if (dt * scale > opt.maxBulgeStep) scale = opt.maxBulgeStep / dt;
-    let move = 0;
-    for (let v = 0; v < junctions; v++) move = Math.max(move, Math.hypot(step[2 * v], step[2 * v + 1]));
-    if (move * scale > opt.maxMoveStep) scale = opt.maxMoveStep / move;
-    if (!Number.isFinite(scale)) {
-      end = 'non-finite';
-      break;
-    }
-    // backtrack until the residual's 2-norm falls enough
-    let alpha = scale;
-    let accepted = false;
-    // Is the residual already at the rounding floor? Then only a full step may still help.
-    const tries = worst <= FLOOR ? 1 : LINE_SEARCH;
-    for (let ls = 0; ls < tries; ls++, alpha *= 0.5) {
-      let inside = true;
-      for (let i = 0; i < size; i++) trial[i] = z[i] + alpha * step[i];
-      for (let k = 0; k < walls; k++) if (!(Math.abs(trial[t0 + k]) < BULGE_LIMIT)) inside = false;
-      if (!inside) continue;
-      const trialWorst = homotopyInto(problem, trial, targets, offset, weight, rTrial);
-      const trialMerit = norm2(rTrial, size);
-      if (trialMerit <= (1 - 1e-4 * alpha) * merit) {
-        accepted = true;
-        worst = trialWorst;
-        merit = trialMerit;
-        break;
-      }
-    }
-    if (!accepted) {
-      end = worst <= FLOOR ? 'converged' : 'stalled';
-      break;
-    }
-    const zs = z;
-    z = trial;
-    trial = zs;
-    const rs = r;
-    r = rTrial;
-    rTrial = rs;
-  }
-  if (end === 'max-iterations' && worst <= tolerance) end = 'converged';
-  // keep the accepted state in ws.z whichever buffer it ended in
-  if (z !== ws.z) {
-    ws.z.set(z);
-    ws.r.set(r);
-  }
-  return { end, iterations };
-}
-
-// Fit the pressures of state z to the Laplace-Young law (curvature = p_right - p_left) by least squares.
-function fitPressures(problem: ClusterProblem, ws: Workspace): void {
-  const { cells, walls, junctions, starts, ends, lefts, rights } = problem;
-  const { z, normal, pivots } = ws;
-  const m = normal;
-  const rhs = normal.subarray(cells * cells);
-  m.fill(0);
-  const t0 = 2 * junctions;
-  for (let k = 0; k < walls; k++) {
-    const a = 2 * starts[k];
-    const b = 2 * ends[k];
-    const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
-    const kappa = c > 0 ? (2 * Math.sin(z[t0 + k])) / c : 0;
-    const l = lefts[k];
-    const r = rights[k];
-    // row: p_r - p_l = kappa
-    if (r >= 0) {
-      m[r * cells + r] += 1;
-      rhs[r] += kappa;
-    }
-    if (l >= 0) {
-      m[l * cells + l] += 1;
-      rhs[l] -= kappa;
-    }
-    if (l >= 0 && r >= 0) {
-      m[l * cells + r] -= 1;
-      m[r * cells + l] -= 1;
-    }
-  }
-  const p0 = t0 + walls;
-  if (luFactorInto(m, cells, pivots) > 0) {
-    luSolveInto(m, cells, pivots, rhs);
-    for (let f = 0; f < cells; f++) z[p0 + f] = Number.isFinite(rhs[f]) ? rhs[f] : 0;
-  } else {
-    for (let f = 0; f < cells; f++) z[p0 + f] = 0;
-  }
-}
-
-// Whether the walls at every junction of state z leave it in the map's counter-clockwise order.
-function ordersHold(problem: ClusterProblem, z: Float64Array): boolean {
-  const { junctions, twins, wallOf } = problem;
-  const t0 = 2 * junctions;
-  const TAU = 2 * Math.PI;
-  for (let v = 0; v < junctions; v++) {
-    let first = 0;
-    let d1 = 0;
-    for (let i = 0; i < 3; i++) {
-      const e = 3 * v + i;
-      const w = (twins[e] / 3) | 0;
-      const t = e < twins[e] ? z[t0 + wallOf[e]] : -z[t0 + wallOf[e]];
-      const angle = Math.atan2(z[2 * w + 1] - z[2 * v + 1], z[2 * w] - z[2 * v]) + t;
-      if (i === 0) {
-        first = angle;
-        continue;
-      }
-      const d = (((angle - first) % TAU) + TAU) % TAU;
-      if (i === 1) d1 = d;
-      else if (!(d1 > 0 && d > d1)) return false;
-    }
-  }
-  return true;
-}
-
-// The wall of smallest chord relative to its size scale, sqrt of the smaller target area of the
-// cells on its two sides, and that relative chord.
-function shortestWall(problem: ClusterProblem, z: Float64Array, targets: Float64Array): { wall: number; chord: number } {
-  const { walls, starts, ends, lefts, rights } = problem;
-  let wall = 0;
-  let chord = Infinity;
-  for (let k = 0; k < walls; k++) {
-    const a = 2 * starts[k];
-    const b = 2 * ends[k];
-    const l = lefts[k];
-    const r = rights[k];
-    const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
-    const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) / Math.sqrt(area);
-    if (c < chord) {
-      chord = c;
-      wall = k;
-    }
-  }
-  return { wall, chord };
-}
-
-// A cell all of whose walls are shorter than `limit` times sqrt(its target area), as a cell number, or 0.
-function pinchedCell(problem: ClusterProblem, z: Float64Array, targets: Float64Array, limit: number): number {
-  const { walls, starts, ends, lefts, rights, cells } = problem;
-  for (let f = 0; f < cells; f++) {
-    let all = true;
-    let any = false;
-    const scale = limit * Math.sqrt(targets[f]);
-    for (let k = 0; k < walls && all; k++) {
-      if (lefts[k] !== f && rights[k] !== f) continue;
-      any = true;
-      const a = 2 * starts[k];
-      const b = 2 * ends[k];
-      if (Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) >= scale) all = false;
-    }
-    if (any && all) return f + 1;
-  }
-  return 0;
-}
-
-interface Verdict {
-  status: EquilibriumStatus;
-  wall: number | null;
-  cell: number | null;
-}
-
-// Name the failure of a solve that did not end at a valid drawing, from the state it reached.
-function failureOf(
-  problem: ClusterProblem, z: Float64Array, targets: Float64Array, opt: ResolvedNewtonOptions, end: SolveEnd,
-): Verdict {
-  const { wall, chord } = shortestWall(problem, z, targets);
-  const collapsing = end === 'collapse' || chord < opt.collapseLength;
-  if (collapsing) {
-    const cell = pinchedCell(problem, z, targets, COLLAPSE_SPREAD * opt.collapseLength);
-    if (cell > 0) return { status: 'cell-collapse', wall: null, cell };
-    return { status: 'wall-collapse', wall, cell: null };
-  }
-  if (end === 'converged') return { status: 'walls-cross', wall: null, cell: null };
-  return { status: 'no-convergence', wall: null, cell: null };
-}
+// The barycentric drawing is replaced by the construction-path drawing when some cell comes out below
+// this fraction of its target area (there the descent would first spend tens of steps growing it).
+const SMALL_START = 1e-4;
 
 interface Attempt {
-  ok: boolean;
   verdict: Verdict;
   iterations: number;
-  solves: number;
 }
 
-const OK: Verdict = { status: 'ok', wall: null, cell: null };
+const NO_CONVERGENCE: Verdict = { status: 'no-convergence', wall: null, cell: null };
 
-// One solve to the targets from ws.z, judged: converged with every junction in order.
-function direct(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): Attempt {
-  const report = solve(problem, ws, ws.targets, 0, opt);
-  const ok = report.end === 'converged' && ordersHold(problem, ws.z);
-  const verdict = ok ? OK : failureOf(problem, ws.z, ws.targets, opt, report.end);
-  return { ok, verdict, iterations: report.iterations, solves: 1 };
-}
-
-// Follow a path from ws.z (a solution at s = 0) to s = 1 by Newton-solved steps, halving a step that
-// fails and doubling after a success. Phase 'forces': at the start's own areas, the geometry rows
-// offset by (1 - s) times the start's residual (a Newton homotopy: the start solves it exactly at
-// s = 0). Phase 'areas': no offset, areas startAreas^(1-s) targets^s (the equilibrium branch).
-function follow(
-  problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, phase: 'forces' | 'areas', budget: number,
-): Attempt {
-  const { cells, size } = problem;
-  const { startAreas, targets, goal, saved } = ws;
-  if (phase === 'forces') residualInto(problem, ws.z, startAreas, ws.offset);
-  let s = 0;
-  let h = 1 / opt.continuationSteps;
-  let iterations = 0;
-  let solves = 0;
-  let verdict: Verdict = { status: 'no-convergence', wall: null, cell: null };
-  saved.set(ws.z.subarray(0, size));
-  while (solves < budget) {
-    const next = Math.min(1, s + h);
-    if (phase === 'areas') {
-      for (let f = 0; f < cells; f++) goal[f] = startAreas[f] ** (1 - next) * targets[f] ** next;
-    }
-    const report = solve(
-      problem, ws, phase === 'areas' ? (next === 1 ? targets : goal) : startAreas,
-      phase === 'areas' ? 0 : 1 - next, opt,
-    );
-    iterations += report.iterations;
-    solves++;
-    if (report.end === 'converged' && ordersHold(problem, ws.z)) {
-      saved.set(ws.z.subarray(0, size));
-      s = next;
-      if (s >= 1) return { ok: true, verdict: OK, iterations, solves };
-      h = Math.min(2 * h, 1 - s);
-      continue;
-    }
-    const aim = phase === 'areas' ? goal : startAreas;
-    verdict = failureOf(problem, ws.z, aim, opt, report.end);
-    ws.z.set(saved.subarray(0, size));
-    // Was the last good state already near the collapse? Then smaller steps only creep towards it.
-    const near = shortestWall(problem, ws.z, aim);
-    if (near.chord < COLLAPSE_SPREAD * opt.collapseLength) {
-      if (verdict.status === 'no-convergence') verdict = failureOf(problem, ws.z, aim, opt, 'collapse');
-      if (verdict.status === 'wall-collapse' || verdict.status === 'cell-collapse') break;
-    }
-    h *= 0.5;
-    if (h < MIN_CONTINUATION_STEP) break;
+// Descend from ws.z and name the end.
+function settle(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, warm: boolean): Attempt {
+  const d = descend(problem, ws, opt, opt.maxIterations, warm);
+  let verdict = NO_CONVERGENCE;
+  if (d.end === 'collapse') verdict = collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
+  else if (d.end === 'settled') {
+    // Is the equilibrium reached with a wall below the collapse length, or out of order at a junction?
+    if (shortestWall(problem, ws.z, ws.targets).chord < opt.collapseLength) {
+      verdict = collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
+    } else if (!ordersHold(problem, ws.z)) verdict = { status: 'walls-cross', wall: null, cell: null };
+    else verdict = OK;
   }
-  // Did the area path stall with no collapse in sight? Its equilibrium branch folds back.
-  if (phase === 'areas' && verdict.status === 'no-convergence' && solves < budget) {
-    verdict = { status: 'fold', wall: null, cell: null };
-  }
-  // give up at the last good state, naming what went wrong at the last step that failed
-  return { ok: false, verdict, iterations, solves };
+  return { verdict, iterations: d.iterations };
 }
 
-// Continuation: first relax the start at its own areas (phase 'forces'), then follow its equilibrium
-// to the targets (phase 'areas').
-function continuation(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): Attempt {
-  const first = follow(problem, ws, opt, 'forces', opt.maxContinuationSolves);
-  if (!first.ok) return first;
-  cellAreasInto(problem, ws.z, ws.startAreas);
-  const second = follow(problem, ws, opt, 'areas', opt.maxContinuationSolves - first.solves);
-  return { ...second, iterations: first.iterations + second.iterations, solves: first.solves + second.solves };
+// Write a first drawing into ws.z: with 'auto' the barycentric one, or the construction-path one where
+// the barycentric one draws a cell below SMALL_START of its area (and the other is a valid drawing);
+// otherwise the one asked for (null when it cannot be made). Returns which was drawn.
+function drawStart(
+  map: CubicMap, problem: ClusterProblem, ws: Workspace, which: 'auto' | 'barycentric' | 'insertion',
+): 'barycentric' | 'insertion' | null {
+  const t0 = 2 * problem.junctions;
+  const coords = ws.z.subarray(0, t0);
+  const bulges = ws.z.subarray(t0, t0 + problem.walls);
+  if (which !== 'insertion') {
+    embedClusterInto(map, problem.cells, coords, bulges);
+    if (which === 'barycentric') return 'barycentric';
+    cellAreasInto(problem, ws.z, ws.areas);
+    let small = false;
+    for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] >= SMALL_START * ws.targets[f])) small = true;
+    if (!small) return 'barycentric';
+  }
+  if (drawByInsertionInto(map, ws.targets, coords, bulges)) {
+    // (asked for explicitly, as a second start, it need not be a valid drawing: the descent may still
+    // find its way from it)
+    if (which === 'insertion') return 'insertion';
+    cellAreasInto(problem, ws.z, ws.areas);
+    let valid = ordersHold(problem, ws.z);
+    for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] > 0)) valid = false;
+    if (valid) return 'insertion';
+  }
+  if (which === 'insertion') return null;
+  embedClusterInto(map, problem.cells, coords, bulges);
+  return 'barycentric';
 }
 
 // The answer for the circle (one cell): perimeter 2 sqrt(pi A), pressure 1/R (isoperimetric inequality).
@@ -495,7 +141,9 @@ function normaliseTargets(problem: ClusterProblem, ws: Workspace, areas: Float64
 
 /**
  * Relax the cluster `map` (face 0 = outside, faces 1..n = cells) to an equilibrium with cell i + 1 of
- * area areas[i], from the barycentric drawing. Never throws for a numerical failure: the status names it.
+ * area areas[i], from a first drawing of the arrangement. Never throws for a numerical failure: the
+ * status names it. An 'ok' answer is a stable equilibrium in its arrangement (index 0) unless the
+ * drawing it started from was one already.
  * @throws RangeError when the number of areas is not n or an area is not positive and finite, or an
  *   option is out of range.
  */
@@ -506,18 +154,26 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
   const problem = problemOf(map);
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
-  const drawing = embedCluster(map, problem.cells);
-  const t0 = 2 * problem.junctions;
-  ws.z.set(drawing.coords, 0);
-  ws.z.set(drawing.bulges, t0);
-  fitPressures(problem, ws);
-  cellAreasInto(problem, ws.z, ws.startAreas);
-  return finish(map, problem, ws, areas, unit, opt);
+  const first = drawStart(map, problem, ws, 'auto');
+  let attempt = settle(problem, ws, opt, false);
+  let restarts = 0;
+  // Did the descent not end? Begin again from the other drawing.
+  if (attempt.verdict.status === 'no-convergence') {
+    const second = drawStart(map, problem, ws, first === 'barycentric' ? 'insertion' : 'barycentric');
+    if (second !== null) {
+      const again = settle(problem, ws, opt, false);
+      attempt = { verdict: again.verdict, iterations: attempt.iterations + again.iterations };
+      restarts = 1;
+    }
+  }
+  return answerOf(map, problem, ws, areas, unit, opt, attempt, restarts);
 }
 
 /**
  * Relax from a previous answer's geometry `start` (for instance at nearby areas), in the caller's
- * units; falls back to the area continuation from the start's own areas, then to a cold relax().
+ * units, its pressures as the first pressure estimates; falls back to a cold relax() when that does
+ * not end at a certified equilibrium (and returns the warm answer if the cold one is not certified
+ * either).
  * @throws RangeError as relax() does, or when start's arrays do not fit the map.
  */
 export function relaxFrom(
@@ -538,64 +194,43 @@ export function relaxFrom(
   const unit = normaliseTargets(problem, ws, areas);
   const t0 = 2 * junctions;
   const p0 = t0 + walls;
-  for (let i = 0; i < 2 * junctions; i++) ws.z[i] = start.coords[i] / unit;
+  for (let i = 0; i < t0; i++) ws.z[i] = start.coords[i] / unit;
   for (let k = 0; k < walls; k++) ws.z[t0 + k] = start.bulges[k];
   for (let f = 0; f < cells; f++) ws.z[p0 + f] = start.pressures[f] * unit;
-  cellAreasInto(problem, ws.z, ws.startAreas);
+  cellAreasInto(problem, ws.z, ws.areas);
   let valid = ordersHold(problem, ws.z);
-  for (let f = 0; f < cells; f++) if (!(ws.startAreas[f] > 0)) valid = false;
+  for (let f = 0; f < cells; f++) if (!(ws.areas[f] > 0) || !Number.isFinite(ws.z[p0 + f])) valid = false;
+  for (let i = 0; i < p0; i++) if (!Number.isFinite(ws.z[i]) || (i >= t0 && !(Math.abs(ws.z[i]) < Math.PI))) valid = false;
   if (!valid) return relax(map, areas, options);
-  const answer = finish(map, problem, ws, areas, unit, opt);
-  if (answer.status === 'ok') return answer;
+  const warm = answerOf(map, problem, ws, areas, unit, opt, settle(problem, ws, opt, true), 0);
+  if (warm.status === 'ok') return warm;
   const cold = relax(map, areas, options);
-  cold.iterations += answer.iterations;
-  cold.continuationSolves += answer.continuationSolves;
-  return cold.status === 'ok' ? cold : answer;
-}
-
-// Solve directly, then by continuation; certify, classify and scale back.
-function finish(
-  map: CubicMap, problem: ClusterProblem, ws: Workspace, areas: Float64Array, unit: number,
-  opt: ResolvedNewtonOptions,
-): Equilibrium {
-  // keep the start: the continuation begins there, not where the direct solve gave up
-  ws.initial.set(ws.z);
-  let attempt = direct(problem, ws, opt);
-  let iterations = attempt.iterations;
-  let continuationSolves = 0;
-  if (!attempt.ok) {
-    ws.z.set(ws.initial);
-    let positive = true;
-    for (let f = 0; f < problem.cells; f++) if (!(ws.startAreas[f] > 0)) positive = false;
-    if (positive) {
-      const cont = continuation(problem, ws, opt);
-      iterations += cont.iterations;
-      continuationSolves = cont.solves;
-      // the continuation's verdict names what happens on the way; keep the direct one only when the
-      // continuation found nothing more specific
-      if (cont.ok || cont.verdict.status !== 'no-convergence') attempt = cont;
-      else attempt = { ...cont, verdict: attempt.verdict };
-    }
-  }
-  return answerOf(map, problem, ws, areas, unit, opt, attempt, iterations, continuationSolves);
+  cold.iterations += warm.iterations;
+  cold.continuationSolves += 1;
+  return cold.status === 'ok' ? cold : warm;
 }
 
 const FACTORS = new Float64Array(BULGE_FACTORS);
 
 function answerOf(
   map: CubicMap, problem: ClusterProblem, ws: Workspace, areas: Float64Array, unit: number,
-  opt: ResolvedNewtonOptions, attempt: Attempt, iterations: number, continuationSolves: number,
+  opt: ResolvedNewtonOptions, attempt: Attempt, restarts: number,
 ): Equilibrium {
-  const { junctions, walls, cells, starts, ends, order } = problem;
+  const { junctions, walls, cells, starts, ends } = problem;
   const z = ws.z;
   const t0 = 2 * junctions;
   const p0 = t0 + walls;
-  const coords = new Float64Array(2 * junctions);
-  for (let i = 0; i < 2 * junctions; i++) coords[i] = z[i] * unit;
-  const bulges = z.slice(t0, p0);
-  const pressures = new Float64Array(cells);
+  // one backing store for the answer's five arrays (a new typed array costs about as much whatever its
+  // length, and an answer sent to another thread takes only its own numbers along)
+  const block = new Float64Array(2 * junctions + 2 * walls + 2 * cells);
+  const coords = block.subarray(0, t0);
+  const bulges = block.subarray(t0, p0);
+  const pressures = block.subarray(p0, p0 + cells);
+  const curvatures = block.subarray(p0 + cells, p0 + cells + walls);
+  const achieved = block.subarray(p0 + cells + walls);
+  for (let i = 0; i < t0; i++) coords[i] = z[i] * unit;
+  for (let k = 0; k < walls; k++) bulges[k] = z[t0 + k];
   for (let f = 0; f < cells; f++) pressures[f] = z[p0 + f] / unit;
-  const curvatures = new Float64Array(walls);
   let perimeter = 0;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
@@ -605,32 +240,39 @@ function answerOf(
     perimeter += c * FACTORS[G] * unit;
     curvatures[k] = c > 0 ? (2 * Math.sin(z[t0 + k])) / (c * unit) : 0;
   }
-  const achieved = new Float64Array(cells);
   cellAreasInto(problem, z, achieved);
   for (let f = 0; f < cells; f++) achieved[f] *= unit * unit;
+  const { verdict } = attempt;
   const answer: Equilibrium = {
-    status: attempt.verdict.status,
+    status: verdict.status,
     perimeter,
     pressures,
     coords,
     bulges,
     curvatures,
     areas: achieved,
-    iterations,
-    continuationSolves,
+    iterations: attempt.iterations,
+    continuationSolves: restarts,
     certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }),
     index: null,
     zeroModes: null,
-    collapsingWall: attempt.verdict.wall,
-    collapsingCell: attempt.verdict.cell,
+    collapsingWall: verdict.wall,
+    collapsingCell: verdict.cell,
   };
   if (answer.status === 'ok') {
     const c = answer.certificate;
     if (certificatePasses(c, opt.certificateTolerance)) {
-      jacobianInto(problem, z, ws.jac);
-      const inertia = symmetricInertia(ws.jac, order, opt.zeroTolerance);
-      answer.index = Math.max(0, inertia.negative - (cells + 3));
-      answer.zeroModes = inertia.zero;
+      // stability: the step's matrix at the answer with no shift; n + 3 of its negative eigenvalues
+      // belong to the constraints (areas, rigid motions), the rest are the index
+      const inertia = stabilityInto(problem, ws, opt.zeroTolerance);
+      const index = inertia.negative - (cells + 3);
+      // Fewer negative eigenvalues than constraints? The answer's second variation is not what it
+      // claims to be: refuse it rather than report a made-up index.
+      if (index < 0) answer.status = 'no-convergence';
+      else {
+        answer.index = index;
+        answer.zeroModes = inertia.zero;
+      }
     } else if (c.crossings > 0 || c.misorderedJunctions > 0 || !(c.minCellArea > 0)) {
       answer.status = 'walls-cross';
     } else {
@@ -643,4 +285,20 @@ function answerOf(
     for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) arr[i] = 0;
   }
   return answer;
+}
+
+// The inertia of the unshifted step matrix at ws.z (its pressures as the Lagrange multipliers).
+function stabilityInto(problem: ClusterProblem, ws: Workspace, zeroTolerance: number): { negative: number; zero: number } {
+  const { cells, junctions, walls } = problem;
+  const p0 = 2 * junctions + walls;
+  const { z, cache, areas, targets, mult, mu, grad, lengthGrad, rigid, shift, change, kkt } = ws;
+  perimeterInto(problem, z, cache, areas);
+  for (let f = 0; f < cells; f++) {
+    mult[f] = z[p0 + f];
+    change[f] = 0;
+  }
+  penaltyGradientInto(problem, z, targets, mult, 0, cache, areas, mu, grad, lengthGrad);
+  rigidInto(z, junctions, rigid);
+  factorStepInto(problem, z, cache, mult, 0, shift, lengthGrad, change, rigid, kkt, zeroTolerance);
+  return kkt.inertia;
 }

@@ -3,12 +3,13 @@
 /** Options of relax() and relaxFrom(). Lengths are in units of sqrt(mean target cell area). */
 export interface NewtonOptions {
   /**
-   * Newton iterations allowed for one solve (each continuation step is one solve).
-   * @default 60
+   * Newton iterations allowed for one descent (a relaxation may begin again once from another drawing).
+   * @default 100
    */
   maxIterations?: number;
   /**
-   * Convergence: largest |entry| of the residual in normalised units (mean cell area 1).
+   * Convergence: largest |entry| of the gradient of the Lagrangian and largest relative area error,
+   * in normalised units (mean cell area 1); the descent also stops at the rounding floor.
    * @default 1e-12
    */
   tolerance?: number;
@@ -18,16 +19,6 @@ export interface NewtonOptions {
    * @default 1e-10
    */
   certificateTolerance?: number;
-  /**
-   * Equal steps of the area continuation tried first when a direct solve fails; a failed step is halved.
-   * @default 4
-   */
-  continuationSteps?: number;
-  /**
-   * Most continuation solves (successful or not) in one call before giving up.
-   * @default 40
-   */
-  maxContinuationSolves?: number;
   /**
    * Wall chord, relative to sqrt(mean cell area), below which a wall counts as collapsing.
    * @default 1e-3
@@ -54,11 +45,9 @@ export interface NewtonOptions {
 export type ResolvedNewtonOptions = Required<NewtonOptions>;
 
 const DEFAULTS: ResolvedNewtonOptions = {
-  maxIterations: 60,
+  maxIterations: 100,
   tolerance: 1e-12,
   certificateTolerance: 1e-10,
-  continuationSteps: 4,
-  maxContinuationSolves: 40,
   collapseLength: 1e-3,
   zeroTolerance: 1e-8,
   maxBulgeStep: 0.5,
@@ -74,7 +63,7 @@ export function resolveOptions(options: NewtonOptions = {}): ResolvedNewtonOptio
   for (const key of Object.keys(DEFAULTS) as (keyof NewtonOptions)[]) {
     const value = options[key];
     if (value === undefined) continue;
-    const integer = key === 'maxIterations' || key === 'continuationSteps' || key === 'maxContinuationSolves';
+    const integer = key === 'maxIterations';
     if (typeof value !== 'number' || !Number.isFinite(value) || !(value > 0) || (integer && !Number.isInteger(value))) {
       const want = integer ? 'a positive integer' : 'a positive finite number';
       throw new RangeError(`Option ${key} is ${String(value)} when expected ${want}.`);

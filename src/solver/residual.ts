@@ -43,6 +43,10 @@ export interface ClusterProblem {
   size: number;
   /** Order of the bordered Jacobian, size + 3. */
   order: number;
+  /** Unknowns of cell f (its junctions' coordinates and its walls' bulges) are cellVars[cellVarStarts[f] .. cellVarStarts[f + 1]). */
+  cellVarStarts: Int32Array;
+  /** Unknown indices per cell, see cellVarStarts (3 per side: a 2-connected cell meets each junction once). */
+  cellVars: Int32Array;
 }
 
 const PROBLEMS = new WeakMap<CubicMap, ClusterProblem>();
@@ -71,7 +75,25 @@ export function problemOf(map: CubicMap): ClusterProblem {
   }
   const size = 2 * junctions + walls + cells;
   const wallOf = map.wallIndex();
-  const problem = { cells, junctions, walls, starts, ends, lefts, rights, wallOf, twins, size, order: size + 3 };
+  // each dart of a cell's walk contributes its junction (2 unknowns) and its wall's bulge
+  const { faceStarts, faceDarts } = map;
+  const cellVarStarts = new Int32Array(cells + 1);
+  const cellVars = new Int32Array(3 * (faceStarts[cells + 1] - faceStarts[1]));
+  let m = 0;
+  for (let f = 1; f <= cells; f++) {
+    cellVarStarts[f - 1] = m;
+    for (let i = faceStarts[f]; i < faceStarts[f + 1]; i++) {
+      const e = faceDarts[i];
+      const v = (e / 3) | 0;
+      cellVars[m++] = 2 * v;
+      cellVars[m++] = 2 * v + 1;
+      cellVars[m++] = 2 * junctions + wallOf[e];
+    }
+  }
+  cellVarStarts[cells] = m;
+  const problem = {
+    cells, junctions, walls, starts, ends, lefts, rights, wallOf, twins, size, order: size + 3, cellVarStarts, cellVars,
+  };
   PROBLEMS.set(map, problem);
   return problem;
 }

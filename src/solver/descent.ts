@@ -1,0 +1,342 @@
+// solver stage: the relaxation, a descent on the augmented penalty energy by constrained Newton steps.
+//
+// Each step minimises the quadratic model of the Lagrangian (Hessian B = H(mu) + tau S, kkt.ts)
+// subject to the linearised area constraints J d = r, which also gives new pressures lambda
+// (sequential quadratic programming, "Numerical Optimization", 2nd ed., 2006, §18.1). The shift tau is
+// raised until B is positive definite on the constraints' null space (the inertia of the step's
+// matrix says when), so every step goes downhill in the shape space of the target areas: the descent
+// finds stable equilibria and walls on their way to zero, never a saddle. The step is judged on a real
+// energy, Phi(.; lambda) = perimeter - sum lambda_f (A_f - T_f) + (kappa/2) sum (A_f - T_f)^2 / T_f
+// (penalty.ts): it is a descent direction of Phi once kappa is large enough (slope = -d^T B d - kappa
+// sum (T_f - A_f) r_f / T_f), kappa is raised when it is not, and tau is adapted like a trust region:
+// raised when a step is refused or predicts badly, lowered when the model predicts well, down to 0
+// near a stable equilibrium, where the steps are Newton's on the equilibrium equations and converge
+// quadratically. Keeping the areas right while the shape relaxes matters: a shape relaxed at wrong areas
+// can slide away from a delicate equilibrium (a lens along its wall).
+//
+// A cell drawn far too small asks for at most GROW times its area per step, so it grows in a few steps
+// rather than one wild one; the pressures in the Hessian are kept to a physical bound for the same
+// reason. A step may not shrink any chord below SHRINK times its length, so a wall on its way to zero
+// is seen going there (the T1 collapse the arrangement wants) instead of being jumped across.
+
+import { factorStepInto, rigidInto, solveStepInto } from './kkt.ts';
+import type { ResolvedNewtonOptions } from './options.ts';
+import { WALL_STRIDE, fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto } from './penalty.ts';
+import type { ClusterProblem } from './residual.ts';
+import type { Workspace } from './workspace.ts';
+
+/** Why a descent stopped ('settled': at an equilibrium to within the tolerances, or at the rounding floor). */
+export type DescentEnd = 'settled' | 'collapse' | 'max-iterations' | 'non-finite' | 'stalled';
+
+/** The outcome of descend(): how it ended, Newton iterations used, and the shortest wall at the end. */
+export interface DescentReport {
+  /** How the descent ended. */
+  end: DescentEnd;
+  /** Newton iterations. */
+  iterations: number;
+  /** The wall of smallest relative chord at the end. */
+  wall: number;
+  /** Its chord relative to sqrt of the smaller target area of its two sides. */
+  chord: number;
+}
+
+// Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
+// cell area 1).
+const KAPPA_FIRST = 10;
+const KAPPA_MAX = 1e8;
+// A stalled descent this close to an equilibrium (gradient, relative area error) is at the rounding
+// floor: settled (the certificate judges it).
+const CLOSE = 1e-9;
+// A wall below the collapse length counts as collapsing only once the areas are this close to their
+// targets (a start may draw small cells with short walls that grow first).
+const SETTLED = 0.02;
+// Most growth (or shrinkage) of a cell's area asked for in one step.
+const GROW = 2;
+// Pressures in the Hessian are kept below PRESSURE_CAP times (n times the largest wall curvature + 1):
+// at equilibrium a pressure is a sum of at most n curvature jumps on a path to the outside.
+const PRESSURE_CAP = 4;
+// Smallest factor by which one step may shrink a chord.
+const SHRINK = 0.1;
+// Shift control: factorisations tried per step; smallest non-zero shift and the first one tried; the shift's scale on a
+// variable is at least DIAGONAL_FLOOR of the largest; pivots are counted by their signs (a singular
+// matrix is refused by its solution not being finite). A step is taken
+// when Phi falls by at least ACCEPT of the model's prediction (or both are below ROUNDING of Phi);
+// the shift is lowered above GOOD and raised below POOR.
+const MAX_ATTEMPTS = 40;
+const TAU_MIN = 1e-8;
+const TAU_FIRST = 1e-4;
+const DIAGONAL_FLOOR = 1e-6;
+const ACCEPT = 1e-4;
+const ROUNDING = 1e-13;
+const GOOD = 0.75;
+const POOR = 0.25;
+// Bulges are kept inside (-pi, pi) by this margin.
+const BULGE_LIMIT = Math.PI - 1e-6;
+
+/**
+ * Descend from the geometry in ws.z towards ws.targets with at most `budget` Newton iterations, the
+ * merit's multipliers starting at 0 (or at the pressures in ws.z when `warm`, a previous equilibrium's).
+ * On return ws.z holds the last accepted geometry and its pressure estimates.
+ */
+export function descend(
+  problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, budget: number, warm: boolean,
+): DescentReport {
+  const { cells, junctions, walls } = problem;
+  const t0 = 2 * junctions;
+  const dim = t0 + walls;
+  let z = ws.z;
+  let trial = ws.trial;
+  const {
+    targets, mult, mu, lambda, areas, trialAreas, grad, lengthGrad, shift, direction, cache, chords, rigid, change,
+    hessianPressures, kkt,
+  } = ws;
+  for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
+  let kappa = KAPPA_FIRST;
+  let tau = 0;
+  let perimeter = perimeterInto(problem, z, cache, areas);
+  let phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
+  let gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
+  let violation = violationOf(areas, targets, cells);
+  let iterations = 0;
+  let end: DescentEnd = 'max-iterations';
+  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + 2];
+  for (;;) {
+    if (!Number.isFinite(phi) || !Number.isFinite(gmax)) {
+      end = 'non-finite';
+      break;
+    }
+    if (gmax <= opt.tolerance && violation <= opt.tolerance) {
+      end = 'settled';
+      break;
+    }
+    // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
+    if (violation <= SETTLED && shortest(problem, chords, targets).chord < opt.collapseLength) {
+      end = 'collapse';
+      break;
+    }
+    if (iterations >= budget) break;
+    iterations++;
+    // the step's ingredients: rigid motions, shift scales, Hessian pressures, area changes
+    rigidInto(z, junctions, rigid);
+    shiftScalesInto(problem, cache, mu, shift);
+    let curvatureMax = 0;
+    for (let k = 0; k < walls; k++) {
+      const c = cache[k * WALL_STRIDE + 2];
+      const v = c > 0 ? Math.abs(2 * Math.sin(z[t0 + k])) / c : 0;
+      if (v > curvatureMax) curvatureMax = v;
+    }
+    const cap = PRESSURE_CAP * (cells * curvatureMax + 1);
+    // the Hessian's pressures: those that best explain the present shape (least squares), which stay
+    // physical far from the targets, where the step's own multipliers can be anything
+    const fitted = fitPressuresInto(problem, z, cache, lengthGrad, hessianPressures, ws.cellGrad, ws.normal, ws.pivots, ws.row);
+    for (let f = 0; f < cells; f++) {
+      const m = fitted ? hessianPressures[f] : mu[f];
+      hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
+      change[f] = aimOf(targets[f], areas[f]) - areas[f];
+    }
+    let accepted = false;
+    let failed = false;
+    let phiTrial = phi;
+    let perimeterTrial = perimeter;
+    let cut = 1;
+    for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
+      const order = factorStepInto(problem, z, cache, hessianPressures, tau, shift, lengthGrad, change, rigid, kkt, 0);
+      const inertia = kkt.inertia;
+      if (inertia.negative !== cells + 3) {
+        tau = raise(tau);
+        continue;
+      }
+      solveStepInto(problem, kkt, order, direction, lambda);
+      // the merit's multipliers: the new pressures, kept within the physical bound
+      for (let f = 0; f < cells; f++) {
+        const l = lambda[f];
+        lambda[f] = l > cap ? cap : l < -cap ? -cap : l;
+      }
+      // slope and curvature of Phi(.; lambda) along d, from the step's equations (J d = r)
+      let gd = 0;
+      let dd = 0;
+      for (let i = 0; i < dim; i++) {
+        gd += lengthGrad[i] * direction[i];
+        dd += shift[i] * direction[i] * direction[i];
+      }
+      let lr = 0;
+      let q = 0;
+      let rr = 0;
+      for (let f = 0; f < cells; f++) {
+        const r = change[f];
+        lr += lambda[f] * r;
+        q += ((targets[f] - areas[f]) * r) / targets[f];
+        rr += (r * r) / targets[f];
+      }
+      // slope = grad P . d - lambda . J d - kappa sum (T - A) J d / T with J d = r; d^T B d = -grad P . d
+      // + (unclamped lambda) . r, which the curvature approximates with the clamped one
+      const dbd = -gd + lr;
+      // Is d not downhill on Phi(.; lambda)? Weigh the areas more (q > 0 whenever r is not 0).
+      if (gd - lr - kappa * q >= 0 && q > ROUNDING && kappa < KAPPA_MAX) {
+        kappa = Math.min(KAPPA_MAX, Math.max(2 * kappa, (2 * (gd - lr)) / q));
+      }
+      const slope = gd - lr - kappa * q;
+      const curvature = dbd - tau * dd + kappa * rr;
+      const phiHere = meritOf(perimeter, areas, targets, lambda, kappa, cells);
+      // cap the step: bulges by maxBulgeStep, junction moves by maxMoveStep; cut after each refusal
+      let alpha = 1;
+      let dt = 0;
+      for (let i = t0; i < dim; i++) {
+        const v = Math.abs(direction[i]);
+        if (v > dt) dt = v;
+      }
+      if (dt > opt.maxBulgeStep) alpha = opt.maxBulgeStep / dt;
+      let move = 0;
+      for (let v = 0; v < junctions; v++) {
+        const m = direction[2 * v] * direction[2 * v] + direction[2 * v + 1] * direction[2 * v + 1];
+        if (m > move) move = m;
+      }
+      move = Math.sqrt(move);
+      if (move * alpha > opt.maxMoveStep) alpha = opt.maxMoveStep / move;
+      alpha *= cut;
+      if (!Number.isFinite(alpha) || !Number.isFinite(slope)) {
+        failed = true;
+        break;
+      }
+      const noise = ROUNDING * (Math.abs(phiHere) + 1);
+      // Is the model flat to the rounding of Phi? Then Phi cannot judge the step: Newton's step is
+      // taken as it is (it only polishes the last digits of an equilibrium).
+      const flat = Math.abs(slope) <= noise && Math.abs(curvature) <= noise;
+      if (!(slope < 0) && !flat) {
+        tau = raise(tau);
+        continue;
+      }
+      const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
+      for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
+      if (admissible(problem, trial, chords)) {
+        perimeterTrial = perimeterInto(problem, trial, cache, trialAreas);
+        phiTrial = meritOf(perimeterTrial, trialAreas, targets, lambda, kappa, cells);
+        const change = phiTrial - phiHere;
+        const rho = predicted < 0 ? change / predicted : 0;
+        if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
+          accepted = true;
+          if ((flat || rho > GOOD) && cut === 1) tau = tau * 0.25 < TAU_MIN ? 0 : tau * 0.25;
+          else if (rho < POOR) tau = raise(tau);
+          break;
+        }
+      }
+      tau = raise(tau);
+      cut *= 0.5;
+    }
+    if (!accepted) {
+      // restore the cache at z and stop: no admissible step lowers Phi
+      perimeter = perimeterInto(problem, z, cache, areas);
+      gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
+      end = failed ? 'non-finite' : gmax <= CLOSE && violation <= CLOSE ? 'settled' : 'stalled';
+      break;
+    }
+    for (let f = 0; f < cells; f++) {
+      mult[f] = lambda[f];
+      areas[f] = trialAreas[f];
+    }
+    const swap = z;
+    z = trial;
+    trial = swap;
+    perimeter = perimeterTrial;
+    phi = phiTrial;
+    gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
+    violation = violationOf(areas, targets, cells);
+    for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + 2];
+  }
+  if (z !== ws.z) ws.z.set(z.subarray(0, dim));
+  for (let f = 0; f < cells; f++) ws.z[dim + f] = mu[f];
+  const s = shortest(problem, chords, targets);
+  return { end, iterations, wall: s.wall, chord: s.chord };
+}
+
+// The next shift after a refusal.
+function raise(tau: number): number {
+  return tau === 0 ? TAU_FIRST : 4 * tau;
+}
+
+// The area a step aims at: the target, or at most GROW times (at least 1/GROW of) the present area.
+function aimOf(target: number, area: number): number {
+  if (!(area > 0)) return target;
+  if (target > GROW * area) return GROW * area;
+  if (target * GROW < area) return area / GROW;
+  return target;
+}
+
+// Shift scales: per junction the larger diagonal entry of its two coordinates in H (both coordinates
+// alike, so a step of a symmetric drawing is as symmetric as the drawing), per bulge its own; at least
+// DIAGONAL_FLOOR of the largest.
+function shiftScalesInto(problem: ClusterProblem, cache: Float64Array, mu: Float64Array, shift: Float64Array): void {
+  const { junctions, walls, starts, ends, lefts, rights } = problem;
+  const t0 = 2 * junctions;
+  shift.fill(0, 0, t0);
+  for (let k = 0; k < walls; k++) {
+    const w = k * WALL_STRIDE;
+    const c = cache[w + 2];
+    const l = lefts[k];
+    const r = rights[k];
+    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const gc = c > 0 ? cache[w + 3] / c : 0;
+    const dx = cache[w];
+    const dy = cache[w + 1];
+    const ux = c > 0 ? dx / c : 0;
+    const uy = c > 0 ? dy / c : 0;
+    const h = cache[w + 6];
+    const s = Math.max(Math.abs(gc * (1 - ux * ux) + 2 * d * h), Math.abs(gc * (1 - uy * uy) + 2 * d * h));
+    shift[2 * starts[k]] += s;
+    shift[2 * ends[k]] += s;
+    shift[t0 + k] = Math.abs(c * cache[w + 5] + d * c * c * cache[w + 8]);
+  }
+  let most = 0;
+  for (let i = 0; i < t0 + walls; i++) if (shift[i] > most) most = shift[i];
+  const floor = DIAGONAL_FLOOR * most;
+  for (let v = 0; v < junctions; v++) {
+    const s = Math.max(shift[2 * v], floor);
+    shift[2 * v] = s;
+    shift[2 * v + 1] = s;
+  }
+  for (let k = 0; k < walls; k++) if (shift[t0 + k] < floor) shift[t0 + k] = floor;
+}
+
+// Largest relative area error.
+function violationOf(areas: Float64Array, targets: Float64Array, cells: number): number {
+  let worst = 0;
+  for (let f = 0; f < cells; f++) {
+    const v = Math.abs(areas[f] - targets[f]) / targets[f];
+    if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
+  }
+  return worst;
+}
+
+// The wall of smallest chord relative to sqrt of the smaller target area on its two sides.
+function shortest(problem: ClusterProblem, chords: Float64Array, targets: Float64Array): { wall: number; chord: number } {
+  const { walls, lefts, rights } = problem;
+  let wall = 0;
+  let chord = Infinity;
+  for (let k = 0; k < walls; k++) {
+    const l = lefts[k];
+    const r = rights[k];
+    const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
+    const c = chords[k] / Math.sqrt(area);
+    if (c < chord) {
+      chord = c;
+      wall = k;
+    }
+  }
+  return { wall, chord };
+}
+
+// Whether a trial state keeps every bulge inside (-pi, pi) and no chord below SHRINK of its length at z.
+function admissible(problem: ClusterProblem, trial: Float64Array, chords: Float64Array): boolean {
+  const { walls, starts, ends, junctions } = problem;
+  const t0 = 2 * junctions;
+  for (let k = 0; k < walls; k++) {
+    if (!(Math.abs(trial[t0 + k]) < BULGE_LIMIT)) return false;
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const dx = trial[b] - trial[a];
+    const dy = trial[b + 1] - trial[a + 1];
+    const floor = SHRINK * chords[k];
+    if (dx * dx + dy * dy < floor * floor) return false;
+  }
+  return true;
+}

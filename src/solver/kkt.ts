@@ -1,0 +1,324 @@
+// solver stage: the equilibrium (KKT) step with the bulges eliminated wall by wall.
+//
+// The step (d, lambda, nu) of the relaxer solves
+//
+//   [ B   -J^T  R^T ] [ d      ]   [ -grad P ]
+//   [ -J   0    0   ] [ lambda ] = [ -r      ]      B = H(mu) + tau S,
+//   [ R    0    0   ] [ nu     ]   [  0      ]
+//
+// with H(mu) the Hessian of the Lagrangian sum L_k - sum mu_f (A_f - T_f) at the pressure estimates mu,
+// S a diagonal shift scale (the same for both coordinates of a junction), J the area gradients, r the
+// area changes asked for and R the three rigid motions (unit translations, rotation about the
+// centroid). lambda are the new pressures. A bulge enters only its own wall's terms, so B's bulge block
+// is diagonal: each bulge is eliminated by one rank-one update of the rows of its wall's four
+// coordinates and its two cells' pressures (design.md §5), leaving an order of 2V + n + 3 plus the
+// walls whose bulge pivot is too small to eliminate safely (a semicircle's is 0 at equilibrium). The
+// reduced matrix is factored by the symmetric indefinite LDL^T of ldlt.ts, whose inertia tells whether
+// B is positive definite on the null space of the constraints (Haynsworth inertia additivity: the
+// eliminated pivots count with their signs; "Matrix Computations", 4th ed., 2013, §4.4 and the Schur
+// complement): it is exactly when n + 3 eigenvalues are negative and none is zero.
+//
+// Layout of the reduced unknowns: coordinates 0 .. 2V, kept bulges 2V .. 2V + K, pressures, then the
+// three rigid multipliers.
+
+import { type Inertia, symmetricFactorInto, symmetricSolveInto } from './ldlt.ts';
+import type { ClusterProblem } from './residual.ts';
+
+// Offsets of the per-wall cache of penalty.ts (WALL_STRIDE numbers per wall).
+const W_DX = 0;
+const W_DY = 1;
+const W_C = 2;
+const W_G = 3;
+const W_G1 = 4;
+const W_G2 = 5;
+const W_H = 6;
+const W_H1 = 7;
+const W_H2 = 8;
+const WALL_STRIDE = 9;
+
+// A bulge is eliminated when its pivot is at least ELIMINATE times the largest entry of its column.
+const ELIMINATE = 0.05;
+// Per eliminated wall: its pivot, the right-hand side of its row and the six entries of its column
+// (ax, ay, bx, by, left pressure, right pressure).
+const E_PIVOT = 0;
+const E_RHS = 1;
+const E_U = 2;
+const ELIMINATED_STRIDE = 8;
+
+// Scratch of one elimination: the column entries and their rows.
+const U = new Float64Array(6);
+const IDS = new Int32Array(6);
+
+/** Buffers of the reduced step, one set per problem size. */
+export interface KktWorkspace {
+  /** Reduced matrix (lower triangle used), order^2 with order at most 2V + E + n + 3. */
+  matrix: Float64Array;
+  /** Right-hand side, then solution, of the reduced system. */
+  rhs: Float64Array;
+  /** Pivots of the factorisation. */
+  pivots: Int32Array;
+  /** Slot of wall k's bulge in the reduced system, or -1 when eliminated. */
+  slots: Int32Array;
+  /** Per-wall elimination data, ELIMINATED_STRIDE numbers per wall. */
+  eliminated: Float64Array;
+  /** Inertia of the last factorisation. */
+  inertia: Inertia;
+}
+
+/** Allocate the buffers for `problem`'s size. */
+export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
+  const { junctions, walls, cells } = problem;
+  const most = 2 * junctions + walls + cells + 3;
+  return {
+    matrix: new Float64Array(most * most),
+    rhs: new Float64Array(most),
+    pivots: new Int32Array(most),
+    slots: new Int32Array(walls),
+    eliminated: new Float64Array(walls * ELIMINATED_STRIDE),
+    inertia: { negative: 0, zero: 0, positive: 0 },
+  };
+}
+
+/**
+ * Assemble and factor the reduced step system at z (cache: the per-wall values of penaltyEnergyInto
+ * at z; mu: pressures of the Hessian; lengthGrad: the perimeter's gradient; change: r, the area change
+ * asked of each cell; rigid: the three rigid motions, 3 * 2V). Returns the order of the reduced system
+ * and leaves its inertia in kw.inertia, counted with the eliminated pivots' signs, so that the step's
+ * B is positive definite on the constraints' null space exactly when kw.inertia.negative = n + 3 and
+ * kw.inertia.zero = 0.
+ */
+export function factorStepInto(
+  problem: ClusterProblem, z: Float64Array, cache: Float64Array, mu: Float64Array, tau: number,
+  shift: Float64Array, lengthGrad: Float64Array, change: Float64Array, rigid: Float64Array, kw: KktWorkspace,
+  zeroTolerance: number,
+): number {
+  const { junctions, walls, cells, starts, ends, lefts, rights } = problem;
+  const t0 = 2 * junctions;
+  const { matrix, rhs, slots, eliminated, pivots } = kw;
+  // which bulges stay: those whose pivot is small against their column
+  let kept = 0;
+  for (let k = 0; k < walls; k++) {
+    const w = k * WALL_STRIDE;
+    const c = cache[w + W_C];
+    const l = lefts[k];
+    const r = rights[k];
+    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const dx = cache[w + W_DX];
+    const dy = cache[w + W_DY];
+    const ux = c > 0 ? dx / c : 0;
+    const uy = c > 0 ? dy / c : 0;
+    const g1 = cache[w + W_G1];
+    const h1 = cache[w + W_H1];
+    const mxt = g1 * ux + 2 * d * h1 * dx;
+    const myt = g1 * uy + 2 * d * h1 * dy;
+    const qt = c * c * h1;
+    const pivot = c * cache[w + W_G2] + d * c * c * cache[w + W_H2] + tau * shift[t0 + k];
+    const column = Math.max(Math.abs(mxt), Math.abs(myt), Math.abs(qt));
+    if (Math.abs(pivot) >= ELIMINATE * column && pivot !== 0) {
+      slots[k] = -1;
+      const e = k * ELIMINATED_STRIDE;
+      eliminated[e + E_PIVOT] = pivot;
+      eliminated[e + E_RHS] = -lengthGrad[t0 + k];
+      eliminated[e + E_U] = -mxt;
+      eliminated[e + E_U + 1] = -myt;
+      eliminated[e + E_U + 2] = mxt;
+      eliminated[e + E_U + 3] = myt;
+      // -dA_l/dt = -(-c^2 h') for the left cell, +(-c^2 h') for the right one
+      eliminated[e + E_U + 4] = qt;
+      eliminated[e + E_U + 5] = -qt;
+    } else {
+      slots[k] = t0 + kept++;
+    }
+  }
+  const p0 = t0 + kept;
+  const n = p0 + cells + 3;
+  matrix.fill(0, 0, n * n);
+  rhs.fill(0, 0, n);
+  // add v at (i, j) of the symmetric matrix, in its lower triangle
+  const add = (i: number, j: number, v: number): void => {
+    if (i >= j) matrix[i * n + j] += v;
+    else matrix[j * n + i] += v;
+  };
+  let negativePivots = 0;
+  for (let k = 0; k < walls; k++) {
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const w = k * WALL_STRIDE;
+    const dx = cache[w + W_DX];
+    const dy = cache[w + W_DY];
+    const c = cache[w + W_C];
+    const g1 = cache[w + W_G1];
+    const h = cache[w + W_H];
+    const h1 = cache[w + W_H1];
+    const l = lefts[k];
+    const r = rights[k];
+    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const ux = c > 0 ? dx / c : 0;
+    const uy = c > 0 ? dy / c : 0;
+    const gc = c > 0 ? cache[w + W_G] / c : 0;
+    // the wall's chord block, as in jacobianInto (residual.ts), with the cross-product terms
+    const mxx = gc * (1 - ux * ux) + 2 * d * h;
+    const mxy = -gc * ux * uy;
+    const myy = gc * (1 - uy * uy) + 2 * d * h;
+    const half = 0.5 * d;
+    add(a, a, mxx);
+    add(a + 1, a, mxy);
+    add(a + 1, a + 1, myy);
+    add(b, b, mxx);
+    add(b + 1, b, mxy);
+    add(b + 1, b + 1, myy);
+    add(b, a, -mxx);
+    add(b, a + 1, half - mxy);
+    add(b + 1, a, -mxy - half);
+    add(b + 1, a + 1, -myy);
+    // the wall's area gradient: dQ/da, dQ/db (Q added to the left cell, taken from the right one)
+    const qax = 0.5 * z[b + 1] + 2 * h * dx;
+    const qay = -0.5 * z[b] + 2 * h * dy;
+    const qbx = -0.5 * z[a + 1] - 2 * h * dx;
+    const qby = 0.5 * z[a] - 2 * h * dy;
+    if (l >= 0) {
+      const row = p0 + l;
+      add(row, a, -qax);
+      add(row, a + 1, -qay);
+      add(row, b, -qbx);
+      add(row, b + 1, -qby);
+    }
+    if (r >= 0) {
+      const row = p0 + r;
+      add(row, a, qax);
+      add(row, a + 1, qay);
+      add(row, b, qbx);
+      add(row, b + 1, qby);
+    }
+    const slot = slots[k];
+    if (slot >= 0) {
+      // a kept bulge: its column as it is
+      const mxt = g1 * ux + 2 * d * h1 * dx;
+      const myt = g1 * uy + 2 * d * h1 * dy;
+      const qt = c * c * h1;
+      add(slot, a, -mxt);
+      add(slot, a + 1, -myt);
+      add(slot, b, mxt);
+      add(slot, b + 1, myt);
+      add(slot, slot, c * cache[w + W_G2] + d * c * c * cache[w + W_H2] + tau * shift[t0 + k]);
+      if (l >= 0) add(p0 + l, slot, qt);
+      if (r >= 0) add(p0 + r, slot, -qt);
+      rhs[slot] = -lengthGrad[t0 + k];
+    } else {
+      // an eliminated bulge: subtract u u^T / pivot from its six rows and columns
+      const e = k * ELIMINATED_STRIDE;
+      const pivot = eliminated[e + E_PIVOT];
+      if (pivot < 0) negativePivots++;
+      const idx0 = a;
+      const idx1 = a + 1;
+      const idx2 = b;
+      const idx3 = b + 1;
+      const idx4 = l >= 0 ? p0 + l : -1;
+      const idx5 = r >= 0 ? p0 + r : -1;
+      const u0 = eliminated[e + E_U];
+      const u1 = eliminated[e + E_U + 1];
+      const u2 = eliminated[e + E_U + 2];
+      const u3 = eliminated[e + E_U + 3];
+      const u4 = eliminated[e + E_U + 4];
+      const u5 = eliminated[e + E_U + 5];
+      const inv = 1 / pivot;
+      const s = eliminated[e + E_RHS] * inv;
+      rhs[idx0] -= u0 * s;
+      rhs[idx1] -= u1 * s;
+      rhs[idx2] -= u2 * s;
+      rhs[idx3] -= u3 * s;
+      if (idx4 >= 0) rhs[idx4] -= u4 * s;
+      if (idx5 >= 0) rhs[idx5] -= u5 * s;
+      const us = U;
+      const ids = IDS;
+      us[0] = u0; us[1] = u1; us[2] = u2; us[3] = u3; us[4] = u4; us[5] = u5;
+      ids[0] = idx0; ids[1] = idx1; ids[2] = idx2; ids[3] = idx3; ids[4] = idx4; ids[5] = idx5;
+      for (let i = 0; i < 6; i++) {
+        const ii = ids[i];
+        if (ii < 0) continue;
+        const ui = us[i] * inv;
+        for (let j = 0; j <= i; j++) {
+          const jj = ids[j];
+          if (jj >= 0) add(ii, jj, -ui * us[j]);
+        }
+      }
+    }
+  }
+  // shift on the coordinates, perimeter gradient, area changes, rigid motions
+  for (let i = 0; i < t0; i++) {
+    matrix[i * n + i] += tau * shift[i];
+    rhs[i] -= lengthGrad[i];
+  }
+  for (let f = 0; f < cells; f++) rhs[p0 + f] -= change[f];
+  for (let m = 0; m < 3; m++) {
+    const row = (p0 + cells + m) * n;
+    const o = m * t0;
+    for (let i = 0; i < t0; i++) matrix[row + i] = rigid[o + i];
+  }
+  const inertia = symmetricFactorInto(matrix, n, pivots, zeroTolerance, kw.inertia);
+  inertia.negative += negativePivots;
+  return n;
+}
+
+/**
+ * Solve the factored reduced system and write the step: d (geometry, 2V + E) and lambda (n new
+ * pressures). `order` is factorStepInto's return value.
+ */
+export function solveStepInto(
+  problem: ClusterProblem, kw: KktWorkspace, order: number, d: Float64Array, lambda: Float64Array,
+): void {
+  const { junctions, walls, cells, starts, ends, lefts, rights } = problem;
+  const t0 = 2 * junctions;
+  const { matrix, rhs, pivots, slots, eliminated } = kw;
+  symmetricSolveInto(matrix, order, pivots, rhs);
+  const p0 = order - cells - 3;
+  for (let i = 0; i < t0; i++) d[i] = rhs[i];
+  for (let f = 0; f < cells; f++) lambda[f] = rhs[p0 + f];
+  for (let k = 0; k < walls; k++) {
+    const slot = slots[k];
+    if (slot >= 0) {
+      d[t0 + k] = rhs[slot];
+      continue;
+    }
+    // back-substitute: dt = (rhs_t - u . y) / pivot
+    const e = k * ELIMINATED_STRIDE;
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const l = lefts[k];
+    const r = rights[k];
+    let s = eliminated[e + E_RHS];
+    s -= eliminated[e + E_U] * rhs[a] + eliminated[e + E_U + 1] * rhs[a + 1];
+    s -= eliminated[e + E_U + 2] * rhs[b] + eliminated[e + E_U + 3] * rhs[b + 1];
+    if (l >= 0) s -= eliminated[e + E_U + 4] * rhs[p0 + l];
+    if (r >= 0) s -= eliminated[e + E_U + 5] * rhs[p0 + r];
+    d[t0 + k] = s / eliminated[e + E_PIVOT];
+  }
+}
+
+/**
+ * The rigid motions of the junctions of state z as three orthonormal vectors of length 2V in rigid:
+ * the unit translations along x and y and the unit rotation about the junctions' centroid.
+ */
+export function rigidInto(z: Float64Array, junctions: number, rigid: Float64Array): void {
+  const t0 = 2 * junctions;
+  let cx = 0;
+  let cy = 0;
+  for (let v = 0; v < junctions; v++) {
+    cx += z[2 * v];
+    cy += z[2 * v + 1];
+  }
+  cx /= junctions;
+  cy /= junctions;
+  let norm = 0;
+  for (let v = 0; v < junctions; v++) norm += (z[2 * v] - cx) ** 2 + (z[2 * v + 1] - cy) ** 2;
+  const tn = 1 / Math.sqrt(junctions);
+  const rn = norm > 0 ? 1 / Math.sqrt(norm) : 0;
+  for (let v = 0; v < junctions; v++) {
+    rigid[2 * v] = tn;
+    rigid[2 * v + 1] = 0;
+    rigid[t0 + 2 * v] = 0;
+    rigid[t0 + 2 * v + 1] = tn;
+    rigid[2 * t0 + 2 * v] = -(z[2 * v + 1] - cy) * rn;
+    rigid[2 * t0 + 2 * v + 1] = (z[2 * v] - cx) * rn;
+  }
+}

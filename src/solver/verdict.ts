@@ -1,0 +1,97 @@
+// solver stage: the geometric tests that name how a relaxation ended (collapses, order at junctions).
+
+import type { ClusterProblem } from './residual.ts';
+import type { EquilibriumStatus } from './result.ts';
+
+/** How a relaxation ended, with the wall or cell a collapse names. */
+export interface Verdict {
+  /** The status of the answer. */
+  status: EquilibriumStatus;
+  /** For 'wall-collapse', the collapsing wall. */
+  wall: number | null;
+  /** For 'cell-collapse', the collapsing cell (1..n). */
+  cell: number | null;
+}
+
+/** The verdict of a certified relaxation. */
+export const OK: Verdict = { status: 'ok', wall: null, cell: null };
+
+// A cell pinches off when all its walls are below this many collapse lengths while one collapses.
+const COLLAPSE_SPREAD = 10;
+
+/** Whether the walls at every junction of state z leave it in the map's counter-clockwise order. */
+export function ordersHold(problem: ClusterProblem, z: Float64Array): boolean {
+  const { junctions, twins, wallOf } = problem;
+  const t0 = 2 * junctions;
+  const TAU = 2 * Math.PI;
+  for (let v = 0; v < junctions; v++) {
+    let first = 0;
+    let d1 = 0;
+    for (let i = 0; i < 3; i++) {
+      const e = 3 * v + i;
+      const w = (twins[e] / 3) | 0;
+      const t = e < twins[e] ? z[t0 + wallOf[e]] : -z[t0 + wallOf[e]];
+      const angle = Math.atan2(z[2 * w + 1] - z[2 * v + 1], z[2 * w] - z[2 * v]) + t;
+      if (i === 0) {
+        first = angle;
+        continue;
+      }
+      const d = (((angle - first) % TAU) + TAU) % TAU;
+      if (i === 1) d1 = d;
+      else if (!(d1 > 0 && d > d1)) return false;
+    }
+  }
+  return true;
+}
+
+/**
+ * The wall of smallest chord relative to its size scale, sqrt of the smaller target area of the cells
+ * on its two sides, and that relative chord.
+ */
+export function shortestWall(problem: ClusterProblem, z: Float64Array, targets: Float64Array): { wall: number; chord: number } {
+  const { walls, starts, ends, lefts, rights } = problem;
+  let wall = 0;
+  let chord = Infinity;
+  for (let k = 0; k < walls; k++) {
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const l = lefts[k];
+    const r = rights[k];
+    const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
+    const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) / Math.sqrt(area);
+    if (c < chord) {
+      chord = c;
+      wall = k;
+    }
+  }
+  return { wall, chord };
+}
+
+// A cell all of whose walls are shorter than `limit` times sqrt(its target area), as a cell number, or 0.
+function pinchedCell(problem: ClusterProblem, z: Float64Array, targets: Float64Array, limit: number): number {
+  const { walls, starts, ends, lefts, rights, cells } = problem;
+  for (let f = 0; f < cells; f++) {
+    let all = true;
+    let any = false;
+    const scale = limit * Math.sqrt(targets[f]);
+    for (let k = 0; k < walls && all; k++) {
+      if (lefts[k] !== f && rights[k] !== f) continue;
+      any = true;
+      const a = 2 * starts[k];
+      const b = 2 * ends[k];
+      if (Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) >= scale) all = false;
+    }
+    if (any && all) return f + 1;
+  }
+  return 0;
+}
+
+/**
+ * Name a collapse at state z: a cell whose walls all shrink together pinches off ('cell-collapse'),
+ * otherwise the shortest wall collapses ('wall-collapse', the T1 swap the arrangement wants).
+ */
+export function collapseOf(problem: ClusterProblem, z: Float64Array, targets: Float64Array, collapseLength: number): Verdict {
+  const cell = pinchedCell(problem, z, targets, COLLAPSE_SPREAD * collapseLength);
+  if (cell > 0) return { status: 'cell-collapse', wall: null, cell };
+  return { status: 'wall-collapse', wall: shortestWall(problem, z, targets).wall, cell: null };
+}
