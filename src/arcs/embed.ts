@@ -43,12 +43,12 @@ interface EmbedWorkspace {
   x: Float64Array;
   y: Float64Array;
   fixed: Uint8Array;
-  degree: Float64Array;
+  slot: Int32Array;
+  matrix: Float64Array;
+  bx: Float64Array;
+  by: Float64Array;
   edgeA: Int32Array;
   edgeB: Int32Array;
-  r: Float64Array;
-  p: Float64Array;
-  q: Float64Array;
   wallOf: Int32Array;
 }
 
@@ -62,12 +62,12 @@ function workspaceFor(junctions: number, walls: number, cells: number, darts: nu
       x: new Float64Array(nodes),
       y: new Float64Array(nodes),
       fixed: new Uint8Array(nodes),
-      degree: new Float64Array(nodes),
+      slot: new Int32Array(nodes),
+      matrix: new Float64Array(nodes * nodes),
+      bx: new Float64Array(nodes),
+      by: new Float64Array(nodes),
       edgeA: new Int32Array(3 * darts),
       edgeB: new Int32Array(3 * darts),
-      r: new Float64Array(nodes),
-      p: new Float64Array(nodes),
-      q: new Float64Array(nodes),
       wallOf: new Int32Array(darts),
     };
     WORKSPACES.set(junctions, ws);
@@ -96,7 +96,7 @@ export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float
   const cells = map.faceCount - 1;
   const nodes = junctions + walls + cells;
   const ws = workspaceFor(junctions, walls, cells, darts);
-  const { x, y, fixed, degree, edgeA, edgeB, wallOf } = ws;
+  const { x, y, fixed, edgeA, edgeB, wallOf } = ws;
   // wall numbers as map.wallIndex() gives them, without its allocation
   for (let e = 0, k = 0; e < darts; e++) {
     const t = twins[e];
@@ -143,15 +143,42 @@ export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float
     edgeB[m++] = c;
   }
 
-  // solve the Laplacian system for the free nodes by conjugate gradients (it is symmetric positive
-  // definite: every free node is joined to the fixed boundary through the subdivision)
-  degree.fill(0, 0, nodes);
+  // solve the Laplacian system for the free nodes: (D - A) restricted to them is symmetric positive
+  // definite (every free node is joined to the fixed boundary through the subdivision); one dense
+  // Cholesky factorisation serves both coordinates
+  const { slot, matrix, bx, by } = ws;
+  let free = 0;
+  for (let i = 0; i < nodes; i++) slot[i] = fixed[i] ? -1 : free++;
+  matrix.fill(0, 0, free * free);
+  bx.fill(0, 0, free);
+  by.fill(0, 0, free);
   for (let i = 0; i < m; i++) {
-    degree[edgeA[i]]++;
-    degree[edgeB[i]]++;
+    const a = edgeA[i];
+    const b = edgeB[i];
+    const sa = slot[a];
+    const sb = slot[b];
+    if (sa >= 0) matrix[sa * free + sa] += 1;
+    if (sb >= 0) matrix[sb * free + sb] += 1;
+    if (sa >= 0 && sb >= 0) {
+      if (sa > sb) matrix[sa * free + sb] -= 1;
+      else matrix[sb * free + sa] -= 1;
+    } else if (sa >= 0) {
+      bx[sa] += x[b];
+      by[sa] += y[b];
+    } else if (sb >= 0) {
+      bx[sb] += x[a];
+      by[sb] += y[a];
+    }
   }
-  conjugateGradient(ws, x, nodes, m);
-  conjugateGradient(ws, y, nodes, m);
+  choleskyInPlace(matrix, free);
+  solveCholesky(matrix, free, bx);
+  solveCholesky(matrix, free, by);
+  for (let i = 0; i < nodes; i++) {
+    const k = slot[i];
+    if (k < 0) continue;
+    x[i] = bx[k];
+    y[i] = by[k];
+  }
 
   // draw each wall through its node
   for (let v = 0; v < junctions; v++) {
@@ -215,51 +242,36 @@ function inOrder(twins: Int32Array, wallOf: Int32Array, coords: Float64Array, bu
   return false;
 }
 
-// Solve (D - A) pos = 0 on the free nodes with the fixed nodes as boundary values, in place, starting
-// from the free nodes' current values. CG converges in at most (number of free nodes) steps in exact
-// arithmetic; twice that bounds it here.
-function conjugateGradient(ws: EmbedWorkspace, pos: Float64Array, n: number, m: number): void {
-  const { r, p, q, fixed } = ws;
-  // r = -(L pos) on the free nodes
-  laplacianInto(ws, pos, r, n, m, false);
-  let rr = 0;
-  let scale = 0;
-  for (let i = 0; i < n; i++) {
-    r[i] = -r[i];
-    p[i] = r[i];
-    rr += r[i] * r[i];
-    if (fixed[i]) scale += pos[i] * pos[i] * ws.degree[i] * ws.degree[i];
-  }
-  const stop = 1e-28 * Math.max(scale, 1e-300);
-  for (let it = 0; it < 2 * n && rr > stop; it++) {
-    laplacianInto(ws, p, q, n, m, true);
-    let pq = 0;
-    for (let i = 0; i < n; i++) pq += p[i] * q[i];
-    if (!(pq > 0)) break;
-    const alpha = rr / pq;
-    let next = 0;
-    for (let i = 0; i < n; i++) {
-      pos[i] += alpha * p[i];
-      r[i] -= alpha * q[i];
-      next += r[i] * r[i];
+// Cholesky factorisation L L^T of the symmetric positive definite n x n matrix `a` (lower triangle
+// read), in place in its lower triangle ("Matrix Computations", 4th ed., 2013, §4.2).
+function choleskyInPlace(a: Float64Array, n: number): void {
+  for (let j = 0; j < n; j++) {
+    const rj = j * n;
+    let d = a[rj + j];
+    for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
+    const root = Math.sqrt(d);
+    a[rj + j] = root;
+    const inv = 1 / root;
+    for (let i = j + 1; i < n; i++) {
+      const ri = i * n;
+      let s = a[ri + j];
+      for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];
+      a[ri + j] = s * inv;
     }
-    const beta = next / rr;
-    rr = next;
-    for (let i = 0; i < n; i++) p[i] = r[i] + beta * p[i];
   }
 }
 
-// dst = L src on the free rows (0 on fixed rows); with freeOnly the fixed entries of src count as 0.
-function laplacianInto(ws: EmbedWorkspace, src: Float64Array, dst: Float64Array, n: number, m: number, freeOnly: boolean): void {
-  const { fixed, degree, edgeA, edgeB } = ws;
-  for (let i = 0; i < n; i++) dst[i] = freeOnly && fixed[i] ? 0 : degree[i] * src[i];
-  for (let i = 0; i < m; i++) {
-    const a = edgeA[i];
-    const b = edgeB[i];
-    const sa = freeOnly && fixed[a] ? 0 : src[a];
-    const sb = freeOnly && fixed[b] ? 0 : src[b];
-    dst[a] -= sb;
-    dst[b] -= sa;
+// Solve L L^T x = b in place in b with the factor of choleskyInPlace.
+function solveCholesky(a: Float64Array, n: number, b: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    let s = b[i];
+    for (let k = 0; k < i; k++) s -= a[ri + k] * b[k];
+    b[i] = s / a[ri + i];
   }
-  for (let i = 0; i < n; i++) if (fixed[i]) dst[i] = 0;
+  for (let i = n - 1; i >= 0; i--) {
+    let s = b[i];
+    for (let k = i + 1; k < n; k++) s -= a[k * n + i] * b[k];
+    b[i] = s / a[i * n + i];
+  }
 }

@@ -223,11 +223,11 @@ export function drawByInsertionInto(map: CubicMap, targets: Float64Array, coords
           const sum = classTarget[fe] + classTarget[ft];
           want = (ae + at) * (sum > 0 ? classTarget[fe] / sum : 0.5) - ae;
         }
-        const tw0 = bulgeForFactor(-want / c2);
         if (pass === 1) {
-          setBulge(tw, bulge, e, tw0);
+          setBulge(tw, bulge, e, bulgeForFactor(-want / c2));
           break;
         }
+        const tw0 = approximateBulge(-want / c2);
         // prefer small bulges, then places near the middles
         const score = Math.abs(tw0) + 0.05 * (Math.abs(sB - 0.5) + Math.abs(sA - 0.5));
         if (score < best) {
@@ -420,6 +420,26 @@ function segmentFactor(t: number): number {
   if (Math.abs(t) < 1e-4) return t / 6;
   const s = Math.sin(t);
   return (t - s * Math.cos(t)) / (4 * s * s);
+}
+
+// h on an even grid of [0, MAX_BULGE], for a quick inverse (school numerics, no source).
+const TABLE_STEPS = 256;
+const TABLE = new Float64Array(TABLE_STEPS + 1);
+for (let i = 0; i <= TABLE_STEPS; i++) TABLE[i] = segmentFactor((MAX_BULGE * i) / TABLE_STEPS);
+
+// The bulge with h(t) = value to within the table's resolution, by interpolation in the table.
+function approximateBulge(value: number): number {
+  const v = Math.abs(value);
+  if (!(v < TABLE[TABLE_STEPS])) return value < 0 ? -MAX_BULGE : MAX_BULGE;
+  let lo = 0;
+  let hi = TABLE_STEPS;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >> 1;
+    if (TABLE[mid] <= v) lo = mid;
+    else hi = mid;
+  }
+  const t = (MAX_BULGE * (lo + (v - TABLE[lo]) / (TABLE[hi] - TABLE[lo]))) / TABLE_STEPS;
+  return value < 0 ? -t : t;
 }
 
 // The bulge t in [-MAX_BULGE, MAX_BULGE] with h(t) = value (h is odd and increasing), by bisection.

@@ -41,6 +41,27 @@ export interface EquilibriumGeometry {
 // Below this |bulge| a wall is checked as a straight segment: its sagitta is under 2.5e-8 of its chord.
 const STRAIGHT = 1e-7;
 
+// Scratch of the check, grown to the largest wall count seen (one check runs at a time).
+let LOWER = new Int32Array(0);
+let WALL_OF = new Int32Array(0);
+let CX = new Float64Array(0);
+let CY = new Float64Array(0);
+let RADIUS = new Float64Array(0);
+let BOX = new Float64Array(0);
+const ANGLE = new Float64Array(3);
+const PX = new Float64Array(2);
+const PY = new Float64Array(2);
+
+function scratchFor(walls: number): void {
+  if (LOWER.length >= walls) return;
+  LOWER = new Int32Array(walls);
+  WALL_OF = new Int32Array(2 * walls);
+  CX = new Float64Array(walls);
+  CY = new Float64Array(walls);
+  RADIUS = new Float64Array(walls);
+  BOX = new Float64Array(4 * walls);
+}
+
 /** Whether every residual entry is at most `tolerance` and the drawing is a valid cluster drawing. */
 export function certificatePasses(certificate: Certificate, tolerance: number): boolean {
   return (
@@ -80,14 +101,21 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
     });
   }
   const walls = twins.length / 2;
-  const wallOf = map.wallIndex();
-  const lower = new Int32Array(walls);
-  for (let e = 0; e < twins.length; e++) if (e < twins[e]) lower[wallOf[e]] = e;
+  scratchFor(walls);
+  const wallOf = WALL_OF;
+  const lower = LOWER;
+  for (let e = 0, k = 0; e < twins.length; e++) {
+    if (e < twins[e]) {
+      wallOf[e] = k;
+      wallOf[twins[e]] = k;
+      lower[k++] = e;
+    }
+  }
 
   // rebuild each wall: centre, radius, arc length, signed curvature
-  const cx = new Float64Array(walls);
-  const cy = new Float64Array(walls);
-  const radius = new Float64Array(walls);
+  const cx = CX;
+  const cy = CY;
+  const radius = RADIUS;
   let minWallLength = Infinity;
   let curvatureResidual = 0;
   for (let k = 0; k < walls; k++) {
@@ -119,7 +147,8 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
   // unit tangents at each junction, away from it, and their order
   let tangentResidual = 0;
   let misorderedJunctions = 0;
-  const angle = new Float64Array(3);
+  const angle = ANGLE;
+  const turn = (x: number): number => ((x % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
   for (let v = 0; v < map.junctionCount; v++) {
     let sx = 0;
     let sy = 0;
@@ -147,7 +176,6 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
       angle[i] = Math.atan2(ty, tx);
     }
     tangentResidual = Math.max(tangentResidual, Math.hypot(sx, sy));
-    const turn = (x: number): number => ((x % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
     const d1 = turn(angle[1] - angle[0]);
     const d2 = turn(angle[2] - angle[0]);
     if (!(d1 > 0 && d1 < d2 && d2 < 2 * Math.PI)) misorderedJunctions++;
@@ -159,20 +187,21 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
   for (let f = 1; f <= cells; f++) {
     let sum = 0;
     let comp = 0;
-    const add = (x: number): void => {
-      // compensated summation: keep the low-order part lost by each addition
-      const s = sum + x;
-      comp += Math.abs(sum) >= Math.abs(x) ? sum - s + x : x - s + sum;
-      sum = s;
-    };
     for (let i = faceStarts[f]; i < faceStarts[f + 1]; i++) {
       const e = faceDarts[i];
       const a = (e / 3) | 0;
       const b = (twins[e] / 3) | 0;
       const k = wallOf[e];
       const t = e < twins[e] ? bulges[k] : -bulges[k];
-      add(0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b]));
-      add(-segmentArea(Math.hypot(coords[2 * b] - coords[2 * a], coords[2 * b + 1] - coords[2 * a + 1]), t));
+      // compensated summation of the two terms: keep the low-order part lost by each addition
+      for (let term = 0; term < 2; term++) {
+        const x = term === 0
+          ? 0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b])
+          : -segmentArea(Math.hypot(coords[2 * b] - coords[2 * a], coords[2 * b + 1] - coords[2 * a + 1]), t);
+        const s = sum + x;
+        comp += Math.abs(sum) >= Math.abs(x) ? sum - s + x : x - s + sum;
+        sum = s;
+      }
     }
     const achieved = sum + comp;
     minCellArea = Math.min(minCellArea, achieved);
@@ -216,30 +245,74 @@ function segmentArea(c: number, t: number): number {
   return Math.sign(t) * 0.5 * r * r * diff;
 }
 
-// Count pairs of walls whose curves meet at a point that is not a junction they share.
+// Count pairs of walls whose curves meet at a point that is not a junction they share. A pair whose
+// bounding boxes (grown by `near`) do not overlap cannot meet.
 function countCrossings(
   map: CubicMap, coords: Float64Array, bulges: Float64Array, lower: Int32Array,
   cx: Float64Array, cy: Float64Array, radius: Float64Array, near: number,
 ): number {
   const { twins } = map;
-  const walls = lower.length;
-  const px = new Float64Array(2);
-  const py = new Float64Array(2);
+  const walls = map.twins.length / 2;
+  const box = BOX;
+  for (let k = 0; k < walls; k++) arcBoxInto(k, coords, bulges, lower, twins, cx, cy, radius, near, box);
   let count = 0;
   for (let k1 = 0; k1 < walls; k1++) {
+    const b1 = 4 * k1;
     for (let k2 = k1 + 1; k2 < walls; k2++) {
-      const points = meetInto(k1, k2, coords, bulges, lower, twins, cx, cy, radius, px, py);
+      const b2 = 4 * k2;
+      if (box[b1] > box[b2 + 2] || box[b2] > box[b1 + 2] || box[b1 + 1] > box[b2 + 3] || box[b2 + 1] > box[b1 + 3]) continue;
+      const points = meetInto(k1, k2, coords, bulges, lower, twins, cx, cy, radius, PX, PY);
       let crossing = false;
       for (let i = 0; i < points && !crossing; i++) {
-        if (onWall(k1, px[i], py[i], coords, bulges, lower, twins, near) &&
-            onWall(k2, px[i], py[i], coords, bulges, lower, twins, near)) {
-          crossing = !nearSharedJunction(k1, k2, px[i], py[i], coords, lower, twins, near);
+        if (onWall(k1, PX[i], PY[i], coords, bulges, lower, twins, near) &&
+            onWall(k2, PX[i], PY[i], coords, bulges, lower, twins, near)) {
+          crossing = !nearSharedJunction(k1, k2, PX[i], PY[i], coords, lower, twins, near);
         }
       }
       if (crossing) count++;
     }
   }
   return count;
+}
+
+// Bounding box (x0, y0, x1, y1) of wall k, grown by `near`: its chord's, widened by the arc's sagitta
+// on every side (a safe over-estimate: the arc lies within its sagitta of the chord... for a minor arc;
+// a major arc lies in its circle's box).
+function arcBoxInto(
+  k: number, coords: Float64Array, bulges: Float64Array, lower: Int32Array, twins: Int32Array,
+  cx: Float64Array, cy: Float64Array, radius: Float64Array, near: number, box: Float64Array,
+): void {
+  const a = (lower[k] / 3) | 0;
+  const b = (twins[lower[k]] / 3) | 0;
+  const ax = coords[2 * a];
+  const ay = coords[2 * a + 1];
+  const bx = coords[2 * b];
+  const by = coords[2 * b + 1];
+  let x0 = Math.min(ax, bx);
+  let x1 = Math.max(ax, bx);
+  let y0 = Math.min(ay, by);
+  let y1 = Math.max(ay, by);
+  const t = Math.abs(bulges[k]);
+  if (t >= STRAIGHT) {
+    if (t <= Math.PI / 2) {
+      // the sagitta of a minor arc: c tan(t / 2) / 2
+      const grow = 0.5 * Math.hypot(bx - ax, by - ay) * Math.tan(0.5 * t);
+      x0 -= grow;
+      y0 -= grow;
+      x1 += grow;
+      y1 += grow;
+    } else {
+      x0 = Math.min(x0, cx[k] - radius[k]);
+      y0 = Math.min(y0, cy[k] - radius[k]);
+      x1 = Math.max(x1, cx[k] + radius[k]);
+      y1 = Math.max(y1, cy[k] + radius[k]);
+    }
+  }
+  const o = 4 * k;
+  box[o] = x0 - near;
+  box[o + 1] = y0 - near;
+  box[o + 2] = x1 + near;
+  box[o + 3] = y1 + near;
 }
 
 // Intersections of the supporting circles or lines of walls k1 and k2 (at most 2), into px, py.
@@ -251,8 +324,18 @@ function meetInto(
   const straight2 = Math.abs(bulges[k2]) < STRAIGHT;
   // Are both straight? Two lines meet at most once.
   if (straight1 && straight2) {
-    const [ax, ay, bx, by] = ends(k1, coords, lower, twins);
-    const [qx, qy, rx, ry] = ends(k2, coords, lower, twins);
+    const a1 = (lower[k1] / 3) | 0;
+    const b1 = (twins[lower[k1]] / 3) | 0;
+    const a2 = (lower[k2] / 3) | 0;
+    const b2 = (twins[lower[k2]] / 3) | 0;
+    const ax = coords[2 * a1];
+    const ay = coords[2 * a1 + 1];
+    const bx = coords[2 * b1];
+    const by = coords[2 * b1 + 1];
+    const qx = coords[2 * a2];
+    const qy = coords[2 * a2 + 1];
+    const rx = coords[2 * b2];
+    const ry = coords[2 * b2 + 1];
     const d = (bx - ax) * (ry - qy) - (by - ay) * (rx - qx);
     if (d === 0) return 0;
     const s = ((qx - ax) * (ry - qy) - (qy - ay) * (rx - qx)) / d;
@@ -264,19 +347,22 @@ function meetInto(
   if (straight1 || straight2) {
     const line = straight1 ? k1 : k2;
     const circle = straight1 ? k2 : k1;
-    const [ax, ay, bx, by] = ends(line, coords, lower, twins);
-    const dx = bx - ax;
-    const dy = by - ay;
+    const a = (lower[line] / 3) | 0;
+    const b = (twins[lower[line]] / 3) | 0;
+    const ax = coords[2 * a];
+    const ay = coords[2 * a + 1];
+    const dx = coords[2 * b] - ax;
+    const dy = coords[2 * b + 1] - ay;
     const fx = ax - cx[circle];
     const fy = ay - cy[circle];
-    const a = dx * dx + dy * dy;
-    const b = 2 * (fx * dx + fy * dy);
-    const c = fx * fx + fy * fy - radius[circle] * radius[circle];
-    const disc = b * b - 4 * a * c;
-    if (!(disc >= 0) || a === 0) return 0;
+    const qa = dx * dx + dy * dy;
+    const qb = 2 * (fx * dx + fy * dy);
+    const qc = fx * fx + fy * fy - radius[circle] * radius[circle];
+    const disc = qb * qb - 4 * qa * qc;
+    if (!(disc >= 0) || qa === 0) return 0;
     const root = Math.sqrt(disc);
     for (let i = 0; i < 2; i++) {
-      const s = (-b + (i === 0 ? -root : root)) / (2 * a);
+      const s = (-qb + (i === 0 ? -root : root)) / (2 * qa);
       px[i] = ax + s * dx;
       py[i] = ay + s * dy;
     }
@@ -300,12 +386,6 @@ function meetInto(
   return 2;
 }
 
-function ends(k: number, coords: Float64Array, lower: Int32Array, twins: Int32Array): number[] {
-  const a = (lower[k] / 3) | 0;
-  const b = (twins[lower[k]] / 3) | 0;
-  return [coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1]];
-}
-
 // Whether a point of wall k's supporting curve lies on the wall itself: strictly on the bulge side of
 // the chord for an arc (the arc bulging left of a->b is the part of its circle left of the chord line),
 // between the end points for a segment.
@@ -313,9 +393,12 @@ function onWall(
   k: number, x: number, y: number, coords: Float64Array, bulges: Float64Array, lower: Int32Array,
   twins: Int32Array, near: number,
 ): boolean {
-  const [ax, ay, bx, by] = ends(k, coords, lower, twins);
-  const dx = bx - ax;
-  const dy = by - ay;
+  const a = (lower[k] / 3) | 0;
+  const b = (twins[lower[k]] / 3) | 0;
+  const ax = coords[2 * a];
+  const ay = coords[2 * a + 1];
+  const dx = coords[2 * b] - ax;
+  const dy = coords[2 * b + 1] - ay;
   const c = Math.hypot(dx, dy);
   const t = bulges[k];
   if (Math.abs(t) < STRAIGHT) {
@@ -331,10 +414,13 @@ function nearSharedJunction(
   k1: number, k2: number, x: number, y: number, coords: Float64Array, lower: Int32Array, twins: Int32Array,
   near: number,
 ): boolean {
-  const j1 = [(lower[k1] / 3) | 0, (twins[lower[k1]] / 3) | 0];
-  const j2 = [(lower[k2] / 3) | 0, (twins[lower[k2]] / 3) | 0];
-  for (const v of j1) {
-    if (v !== j2[0] && v !== j2[1]) continue;
+  const a1 = (lower[k1] / 3) | 0;
+  const b1 = (twins[lower[k1]] / 3) | 0;
+  const a2 = (lower[k2] / 3) | 0;
+  const b2 = (twins[lower[k2]] / 3) | 0;
+  for (let i = 0; i < 2; i++) {
+    const v = i === 0 ? a1 : b1;
+    if (v !== a2 && v !== b2) continue;
     if (Math.hypot(x - coords[2 * v], y - coords[2 * v + 1]) < near * 1e3) return true;
   }
   return false;

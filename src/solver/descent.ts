@@ -21,7 +21,8 @@
 
 import { factorStepInto, rigidInto, solveStepInto } from './kkt.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
-import { WALL_STRIDE, fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto } from './penalty.ts';
+import * as penalty from './penalty.ts';
+import { fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto } from './penalty.ts';
 import type { ClusterProblem } from './residual.ts';
 import type { Workspace } from './workspace.ts';
 
@@ -40,6 +41,8 @@ export interface DescentReport {
   chord: number;
 }
 
+// Record length of the per-wall cache (a local copy: see penalty.ts).
+const WALL_STRIDE = penalty.WALL_STRIDE;
 // Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
 // cell area 1).
 const KAPPA_FIRST = 10;
@@ -50,6 +53,13 @@ const CLOSE = 1e-9;
 // A wall below the collapse length counts as collapsing only once the areas are this close to their
 // targets (a start may draw small cells with short walls that grow first).
 const SETTLED = 0.02;
+// Early collapse: below WATCH the shortest wall is watched; when after WATCH_STEPS steps its chord
+// is below WATCH_SHRINK of where it was and the gradient above WATCH_GRADIENT of where it was, it
+// counts as collapsing.
+const WATCH = 0.05;
+const WATCH_STEPS = 3;
+const WATCH_SHRINK = 0.5;
+const WATCH_GRADIENT = 0.5;
 // Most growth (or shrinkage) of a cell's area asked for in one step.
 const GROW = 2;
 // Pressures in the Hessian are kept below PRESSURE_CAP times (n times the largest wall curvature + 1):
@@ -61,14 +71,19 @@ const SHRINK = 0.1;
 // variable is at least DIAGONAL_FLOOR of the largest; pivots are counted by their signs (a singular
 // matrix is refused by its solution not being finite). A step is taken
 // when Phi falls by at least ACCEPT of the model's prediction (or both are below ROUNDING of Phi);
-// the shift is lowered above GOOD and raised below POOR.
+// the shift is lowered (by LOWER) above GOOD, unless it had to be raised in the same step, and raised
+// below POOR.
 const MAX_ATTEMPTS = 40;
 const TAU_MIN = 1e-8;
 const TAU_FIRST = 1e-4;
+// The shift of a cold start's first step: a far start is first relaxed cautiously, close to the
+// steepest descent of the shape (a warm start begins with Newton's step).
+const TAU_START = 1;
 const DIAGONAL_FLOOR = 1e-6;
 const ACCEPT = 1e-4;
 const ROUNDING = 1e-13;
 const GOOD = 0.75;
+const LOWER = 0.5;
 const POOR = 0.25;
 // Bulges are kept inside (-pi, pi) by this margin.
 const BULGE_LIMIT = Math.PI - 1e-6;
@@ -92,13 +107,17 @@ export function descend(
   } = ws;
   for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
   let kappa = KAPPA_FIRST;
-  let tau = 0;
+  let tau = warm ? 0 : TAU_START;
   let perimeter = perimeterInto(problem, z, cache, areas);
   let phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
   let gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
   let violation = violationOf(areas, targets, cells);
   let iterations = 0;
   let end: DescentEnd = 'max-iterations';
+  let watched = -1;
+  let watchSteps = 0;
+  let watchChord = Infinity;
+  let watchGradient = Infinity;
   for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + 2];
   for (;;) {
     if (!Number.isFinite(phi) || !Number.isFinite(gmax)) {
@@ -110,9 +129,25 @@ export function descend(
       break;
     }
     // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
-    if (violation <= SETTLED && shortest(problem, chords, targets).chord < opt.collapseLength) {
+    const short = shortest(problem, chords, targets);
+    if (violation <= SETTLED && short.chord < opt.collapseLength) {
       end = 'collapse';
       break;
+    }
+    // Is the same wall shrinking step after step while the gradient stays finite? The perimeter has a
+    // kink at a zero-length wall, so a descent towards it keeps a finite gradient, while one towards an
+    // equilibrium drives the gradient to zero: it is a collapse, seen before the wall is that short.
+    if (violation <= SETTLED && short.chord < WATCH && short.wall === watched) {
+      watchSteps++;
+      if (watchSteps >= WATCH_STEPS && short.chord < WATCH_SHRINK * watchChord && gmax > WATCH_GRADIENT * watchGradient) {
+        end = 'collapse';
+        break;
+      }
+    } else {
+      watched = short.chord < WATCH ? short.wall : -1;
+      watchSteps = 0;
+      watchChord = short.chord;
+      watchGradient = gmax;
     }
     if (iterations >= budget) break;
     iterations++;
@@ -139,10 +174,12 @@ export function descend(
     let phiTrial = phi;
     let perimeterTrial = perimeter;
     let cut = 1;
+    let raised = false;
     for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
       const order = factorStepInto(problem, z, cache, hessianPressures, tau, shift, lengthGrad, change, rigid, kkt, 0);
       const inertia = kkt.inertia;
       if (inertia.negative !== cells + 3) {
+        raised = true;
         tau = raise(tau);
         continue;
       }
@@ -215,7 +252,7 @@ export function descend(
         const rho = predicted < 0 ? change / predicted : 0;
         if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
           accepted = true;
-          if ((flat || rho > GOOD) && cut === 1) tau = tau * 0.25 < TAU_MIN ? 0 : tau * 0.25;
+          if ((flat || rho > GOOD) && cut === 1 && !raised) tau = tau * LOWER < TAU_MIN ? 0 : tau * LOWER;
           else if (rho < POOR) tau = raise(tau);
           break;
         }

@@ -134,11 +134,6 @@ export function factorStepInto(
   const n = p0 + cells + 3;
   matrix.fill(0, 0, n * n);
   rhs.fill(0, 0, n);
-  // add v at (i, j) of the symmetric matrix, in its lower triangle
-  const add = (i: number, j: number, v: number): void => {
-    if (i >= j) matrix[i * n + j] += v;
-    else matrix[j * n + i] += v;
-  };
   let negativePivots = 0;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
@@ -161,16 +156,16 @@ export function factorStepInto(
     const mxy = -gc * ux * uy;
     const myy = gc * (1 - uy * uy) + 2 * d * h;
     const half = 0.5 * d;
-    add(a, a, mxx);
-    add(a + 1, a, mxy);
-    add(a + 1, a + 1, myy);
-    add(b, b, mxx);
-    add(b + 1, b, mxy);
-    add(b + 1, b + 1, myy);
-    add(b, a, -mxx);
-    add(b, a + 1, half - mxy);
-    add(b + 1, a, -mxy - half);
-    add(b + 1, a + 1, -myy);
+    addLower(matrix, n, a, a, mxx);
+    addLower(matrix, n, a + 1, a, mxy);
+    addLower(matrix, n, a + 1, a + 1, myy);
+    addLower(matrix, n, b, b, mxx);
+    addLower(matrix, n, b + 1, b, mxy);
+    addLower(matrix, n, b + 1, b + 1, myy);
+    addLower(matrix, n, b, a, -mxx);
+    addLower(matrix, n, b, a + 1, half - mxy);
+    addLower(matrix, n, b + 1, a, -mxy - half);
+    addLower(matrix, n, b + 1, a + 1, -myy);
     // the wall's area gradient: dQ/da, dQ/db (Q added to the left cell, taken from the right one)
     const qax = 0.5 * z[b + 1] + 2 * h * dx;
     const qay = -0.5 * z[b] + 2 * h * dy;
@@ -178,17 +173,17 @@ export function factorStepInto(
     const qby = 0.5 * z[a] - 2 * h * dy;
     if (l >= 0) {
       const row = p0 + l;
-      add(row, a, -qax);
-      add(row, a + 1, -qay);
-      add(row, b, -qbx);
-      add(row, b + 1, -qby);
+      addLower(matrix, n, row, a, -qax);
+      addLower(matrix, n, row, a + 1, -qay);
+      addLower(matrix, n, row, b, -qbx);
+      addLower(matrix, n, row, b + 1, -qby);
     }
     if (r >= 0) {
       const row = p0 + r;
-      add(row, a, qax);
-      add(row, a + 1, qay);
-      add(row, b, qbx);
-      add(row, b + 1, qby);
+      addLower(matrix, n, row, a, qax);
+      addLower(matrix, n, row, a + 1, qay);
+      addLower(matrix, n, row, b, qbx);
+      addLower(matrix, n, row, b + 1, qby);
     }
     const slot = slots[k];
     if (slot >= 0) {
@@ -196,13 +191,13 @@ export function factorStepInto(
       const mxt = g1 * ux + 2 * d * h1 * dx;
       const myt = g1 * uy + 2 * d * h1 * dy;
       const qt = c * c * h1;
-      add(slot, a, -mxt);
-      add(slot, a + 1, -myt);
-      add(slot, b, mxt);
-      add(slot, b + 1, myt);
-      add(slot, slot, c * cache[w + W_G2] + d * c * c * cache[w + W_H2] + tau * shift[t0 + k]);
-      if (l >= 0) add(p0 + l, slot, qt);
-      if (r >= 0) add(p0 + r, slot, -qt);
+      addLower(matrix, n, slot, a, -mxt);
+      addLower(matrix, n, slot, a + 1, -myt);
+      addLower(matrix, n, slot, b, mxt);
+      addLower(matrix, n, slot, b + 1, myt);
+      addLower(matrix, n, slot, slot, c * cache[w + W_G2] + d * c * c * cache[w + W_H2] + tau * shift[t0 + k]);
+      if (l >= 0) addLower(matrix, n, p0 + l, slot, qt);
+      if (r >= 0) addLower(matrix, n, p0 + r, slot, -qt);
       rhs[slot] = -lengthGrad[t0 + k];
     } else {
       // an eliminated bulge: subtract u u^T / pivot from its six rows and columns
@@ -239,7 +234,7 @@ export function factorStepInto(
         const ui = us[i] * inv;
         for (let j = 0; j <= i; j++) {
           const jj = ids[j];
-          if (jj >= 0) add(ii, jj, -ui * us[j]);
+          if (jj >= 0) addLower(matrix, n, ii, jj, -ui * us[j]);
         }
       }
     }
@@ -258,6 +253,12 @@ export function factorStepInto(
   const inertia = symmetricFactorInto(matrix, n, pivots, zeroTolerance, kw.inertia);
   inertia.negative += negativePivots;
   return n;
+}
+
+// Add v at (i, j) of a symmetric n x n matrix kept in its lower triangle.
+function addLower(matrix: Float64Array, n: number, i: number, j: number, v: number): void {
+  if (i >= j) matrix[i * n + j] += v;
+  else matrix[j * n + i] += v;
 }
 
 /**

@@ -39,6 +39,73 @@ export function symmetricFactorInto(
     COLUMN = new Float64Array(2 * n);
     COLUMN2 = new Float64Array(2 * n);
   }
+  // first the factorisation in the given order, which is stable when no pivot is small; only when one
+  // is, diagonal pivoting from the original matrix (kept in SAVED)
+  if (SAVED.length < n * n) SAVED = new Float64Array(2 * n * n);
+  SAVED.set(a.subarray(0, n * n));
+  if (plainFactorInto(a, n, pivots, zeroTolerance, out)) return out;
+  a.set(SAVED.subarray(0, n * n));
+  return pivotedFactorInto(a, n, pivots, zeroTolerance, out);
+}
+
+// Copy of the matrix for the pivoted factorisation after a plain one gave up.
+let SAVED = new Float64Array(0);
+// A plain pivot below this fraction of the largest entry sends the factorisation to diagonal pivoting.
+const PLAIN_PIVOT = 1e-4;
+
+// L D L^T without pivoting, row by row (dot products with the rows above): false when a pivot is below
+// PLAIN_PIVOT of the largest |entry|, the matrix then being left partly overwritten.
+function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia): boolean {
+  let scale = 0;
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    for (let j = 0; j <= i; j++) {
+      const v = Math.abs(a[ri + j]);
+      if (!(v <= scale)) scale = v;
+    }
+  }
+  if (!Number.isFinite(scale)) return false;
+  const least = PLAIN_PIVOT * scale;
+  const zeroLevel = zeroTolerance * scale;
+  const w = COLUMN;
+  let negative = 0;
+  let zero = 0;
+  let positive = 0;
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    // l_ij = (a_ij - sum_k l_ik d_k l_jk) / d_j, keeping w_k = l_ik d_k
+    for (let j = 0; j < i; j++) {
+      const rj = j * n;
+      let s = a[ri + j];
+      let k = 0;
+      for (; k + 3 < j; k += 4) s -= w[k] * a[rj + k] + w[k + 1] * a[rj + k + 1] + w[k + 2] * a[rj + k + 2] + w[k + 3] * a[rj + k + 3];
+      for (; k < j; k++) s -= w[k] * a[rj + k];
+      w[j] = s;
+      a[ri + j] = s / a[rj + j];
+    }
+    let d = a[ri + i];
+    for (let k = 0; k < i; k++) d -= w[k] * a[ri + k];
+    if (!(Math.abs(d) >= least)) return false;
+    a[ri + i] = d;
+    pivots[i] = i;
+    if (Math.abs(d) <= zeroLevel) zero++;
+    else if (d < 0) negative++;
+    else positive++;
+  }
+  out.negative = negative;
+  out.zero = zero;
+  out.positive = positive;
+  return true;
+}
+
+// The factorisation with 1x1 and 2x2 diagonal pivots (see the file header).
+function pivotedFactorInto(
+  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia,
+): Inertia {
+  if (COLUMN.length < n) {
+    COLUMN = new Float64Array(2 * n);
+    COLUMN2 = new Float64Array(2 * n);
+  }
   const col = COLUMN;
   const col2 = COLUMN2;
   let scale = 0;
@@ -53,11 +120,6 @@ export function symmetricFactorInto(
   let negative = 0;
   let zero = 0;
   let positive = 0;
-  const count = (d: number): void => {
-    if (Math.abs(d) <= zeroLevel || !Number.isFinite(d)) zero++;
-    else if (d < 0) negative++;
-    else positive++;
-  };
   let k = 0;
   while (k < n) {
     // find the largest entry of column k below the diagonal
@@ -98,7 +160,9 @@ export function symmetricFactorInto(
       swapLower(a, n, k, swapWith);
       pivots[k] = swapWith;
       const d = a[k * n + k];
-      count(d);
+      if (Math.abs(d) <= zeroLevel || !Number.isFinite(d)) zero++;
+      else if (d < 0) negative++;
+      else positive++;
       // Is the pivot zero? Leave its column (the matrix is singular; a solve is meaningless).
       if (d === 0) {
         k++;
@@ -111,7 +175,15 @@ export function symmetricFactorInto(
         if (x === 0) continue;
         const l = x * inv;
         const ri = i * n;
-        for (let j = k + 1; j <= i; j++) a[ri + j] -= l * col[j];
+        let j = k + 1;
+        // (unrolled by four: the trailing update is the factorisation's whole cost)
+        for (; j + 3 <= i; j += 4) {
+          a[ri + j] -= l * col[j];
+          a[ri + j + 1] -= l * col[j + 1];
+          a[ri + j + 2] -= l * col[j + 2];
+          a[ri + j + 3] -= l * col[j + 3];
+        }
+        for (; j <= i; j++) a[ri + j] -= l * col[j];
         a[ri + k] = l;
       }
       k++;
@@ -126,8 +198,14 @@ export function symmetricFactorInto(
       // eigenvalues of the 2x2 pivot block
       const mean = 0.5 * (d11 + d22);
       const rad = Math.hypot(0.5 * (d11 - d22), d21);
-      count(mean - rad);
-      count(mean + rad);
+      const low = mean - rad;
+      const high = mean + rad;
+      if (Math.abs(low) <= zeroLevel || !Number.isFinite(low)) zero++;
+      else if (low < 0) negative++;
+      else positive++;
+      if (Math.abs(high) <= zeroLevel || !Number.isFinite(high)) zero++;
+      else if (high < 0) negative++;
+      else positive++;
       const det = d11 * d22 - d21 * d21;
       for (let i = k + 2; i < n; i++) {
         col[i] = a[i * n + k];

@@ -15,7 +15,7 @@
 // is Q = (a x b)/2 - c^2 h(t) (residual.ts). The perimeter pass caches per-wall values (stride
 // WALL_STRIDE) that the gradient pass and the step's assembly (kkt.ts) reuse.
 
-import { BULGE_FACTORS, G, G1, G2, H, H1, H2, bulgeFactorsInto } from '../arcs/arc.ts';
+import * as arc from '../arcs/arc.ts';
 import { choleskyInto, choleskySolveInto } from './cholesky.ts';
 import type { ClusterProblem } from './residual.ts';
 
@@ -32,7 +32,16 @@ const W_H2 = 8;
 /** Length of one wall's record in the cache buffer of penaltyEnergyInto. */
 export const WALL_STRIDE = 9;
 
-const FACTORS = new Float64Array(BULGE_FACTORS);
+// NOTE: an imported binding is read through a getter at every use under some loaders (tsx); the hot
+// per-wall code reads these local copies instead.
+const factorsInto = arc.bulgeFactorsInto;
+const G = arc.G;
+const G1 = arc.G1;
+const G2 = arc.G2;
+const H = arc.H;
+const H1 = arc.H1;
+const H2 = arc.H2;
+const FACTORS = new Float64Array(arc.BULGE_FACTORS);
 
 /**
  * The perimeter at the geometry of z (normalised units); fills `cache` (WALL_STRIDE per wall) and
@@ -55,7 +64,7 @@ export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: F
     const dy = by - ay;
     const c2 = dx * dx + dy * dy;
     const c = Math.sqrt(c2);
-    bulgeFactorsInto(z[t0 + k], f);
+    factorsInto(z[t0 + k], f);
     const w = k * WALL_STRIDE;
     cache[w + W_DX] = dx;
     cache[w + W_DY] = dy;

@@ -17,7 +17,7 @@
 // balance (the end terms of the area variation cancel around each face).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
-import { BULGE_FACTORS, G, G1, G2, H, H1, H2, bulgeFactorsInto } from '../arcs/arc.ts';
+import * as arc from '../arcs/arc.ts';
 
 /** The topology of a cluster as flat arrays, shared by the residual, the Jacobian and the solver. */
 export interface ClusterProblem {
@@ -98,7 +98,15 @@ export function problemOf(map: CubicMap): ClusterProblem {
   return problem;
 }
 
-const FACTORS = new Float64Array(BULGE_FACTORS);
+// NOTE: local copies of the imported bindings (under some loaders every use of an import is a getter call).
+const bulgeFactorsInto = arc.bulgeFactorsInto;
+const G = arc.G;
+const G1 = arc.G1;
+const G2 = arc.G2;
+const H = arc.H;
+const H1 = arc.H1;
+const H2 = arc.H2;
+const FACTORS = new Float64Array(arc.BULGE_FACTORS);
 
 /**
  * Write the cell areas of state z into areas[0..n) (signed polygon area of each cell's junctions plus
