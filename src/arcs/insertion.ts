@@ -33,7 +33,7 @@ const R_Y2 = 9;
 const RECORD = 10;
 
 // Places tried for a junction put back, as arc fractions along the wall it splits.
-const PLACES = [0.5, 0.3, 0.7, 0.15, 0.85, 0.05, 0.95];
+const PLACES = [0.5, 0.25, 0.75, 0.05, 0.95];
 // Largest |bulge| of a wall put back (a near-full circle would sweep over its neighbours).
 const MAX_BULGE = 2.6;
 // Bisection steps of the bulge fit (the bracket (-MAX_BULGE, MAX_BULGE) shrinks below 1e-12).

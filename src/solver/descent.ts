@@ -60,6 +60,8 @@ const WATCH = 0.05;
 const WATCH_STEPS = 3;
 const WATCH_SHRINK = 0.5;
 const WATCH_GRADIENT = 0.5;
+// Below this area error the Hessian takes the last step's pressures instead of fitting them.
+const FIT_BELOW = 0.1;
 // Most growth (or shrinkage) of a cell's area asked for in one step.
 const GROW = 2;
 // Pressures in the Hessian are kept below PRESSURE_CAP times (n times the largest wall curvature + 1):
@@ -163,9 +165,9 @@ export function descend(
     const cap = PRESSURE_CAP * (cells * curvatureMax + 1);
     // the Hessian's pressures: those that best explain the present shape (least squares), which stay
     // physical far from the targets, where the step's own multipliers can be anything
-    const fitted = fitPressuresInto(problem, z, cache, lengthGrad, hessianPressures, ws.cellGrad, ws.normal, ws.pivots, ws.row);
+    const fitted = (violation > FIT_BELOW || iterations === 1) && fitPressuresInto(problem, z, cache, lengthGrad, hessianPressures, ws.cellGrad, ws.normal, ws.pivots, ws.row);
     for (let f = 0; f < cells; f++) {
-      const m = fitted ? hessianPressures[f] : mu[f];
+      const m = fitted ? hessianPressures[f] : violation > FIT_BELOW ? mu[f] : mult[f];
       hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
       change[f] = aimOf(targets[f], areas[f]) - areas[f];
     }

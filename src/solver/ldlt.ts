@@ -50,8 +50,11 @@ export function symmetricFactorInto(
 
 // Copy of the matrix for the pivoted factorisation after a plain one gave up.
 let SAVED = new Float64Array(0);
-// A plain pivot below this fraction of the largest entry sends the factorisation to diagonal pivoting.
-const PLAIN_PIVOT = 1e-4;
+// The plain factorisation gives up for diagonal pivoting when a pivot is below PLAIN_PIVOT of the largest
+// |entry| or an entry l_ij^2 |d_j| of L D L^T's factors exceeds PLAIN_GROWTH times it (for a positive
+// definite matrix it never exceeds 1: l_ij^2 d_j <= a_ii).
+const PLAIN_PIVOT = 1e-12;
+const PLAIN_GROWTH = 1e4;
 
 // L D L^T without pivoting, row by row (dot products with the rows above): false when a pivot is below
 // PLAIN_PIVOT of the largest |entry|, the matrix then being left partly overwritten.
@@ -66,6 +69,7 @@ function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTol
   }
   if (!Number.isFinite(scale)) return false;
   const least = PLAIN_PIVOT * scale;
+  const growthLimit = PLAIN_GROWTH * scale;
   const zeroLevel = zeroTolerance * scale;
   const w = COLUMN;
   let negative = 0;
@@ -81,7 +85,11 @@ function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTol
       for (; k + 3 < j; k += 4) s -= w[k] * a[rj + k] + w[k + 1] * a[rj + k + 1] + w[k + 2] * a[rj + k + 2] + w[k + 3] * a[rj + k + 3];
       for (; k < j; k++) s -= w[k] * a[rj + k];
       w[j] = s;
-      a[ri + j] = s / a[rj + j];
+      const dj = a[rj + j];
+      const l = s / dj;
+      // Is L D^(1/2) growing (a small earlier pivot)? Then the order needs pivoting.
+      if (!(l * s <= growthLimit && l * s >= -growthLimit)) return false;
+      a[ri + j] = l;
     }
     let d = a[ri + i];
     for (let k = 0; k < i; k++) d -= w[k] * a[ri + k];
