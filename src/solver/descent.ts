@@ -19,7 +19,7 @@
 // reason. A step may not shrink any chord below SHRINK times its length, so a wall on its way to zero
 // is seen going there (the T1 collapse the arrangement wants) instead of being jumped across.
 
-import { factorStepInto, rigidInto, solveStepInto } from './kkt.ts';
+import { factorStepInto, rigidInto, solveStepInto, stepCurvature } from './kkt.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
 import * as penalty from './penalty.ts';
 import { fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto } from './penalty.ts';
@@ -58,8 +58,10 @@ const SETTLED = 0.02;
 // counts as collapsing.
 const WATCH = 0.05;
 const WATCH_STEPS = 3;
-const WATCH_SHRINK = 0.5;
+const WATCH_SHRINK = 1;
 const WATCH_GRADIENT = 0.5;
+// Close enough for Newton's own steps: gradient and area error below ENDGAME.
+const ENDGAME = 1e-2;
 // Below this area error the Hessian takes the last step's pressures instead of fitting them.
 const FIT_BELOW = 0.1;
 // Most growth (or shrinkage) of a cell's area asked for in one step.
@@ -171,6 +173,8 @@ export function descend(
       hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
       change[f] = aimOf(targets[f], areas[f]) - areas[f];
     }
+    // Near an equilibrium? Newton's own step (no shift) converges quadratically from here.
+    if (gmax < ENDGAME && violation < ENDGAME) tau = 0;
     let accepted = false;
     let failed = false;
     let phiTrial = phi;
@@ -180,12 +184,21 @@ export function descend(
     for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
       const order = factorStepInto(problem, z, cache, hessianPressures, tau, shift, lengthGrad, change, rigid, kkt, 0);
       const inertia = kkt.inertia;
-      if (inertia.negative !== cells + 3) {
+      if (inertia.negative !== cells + kkt.rigidRows) {
         raised = true;
         tau = raise(tau);
         continue;
       }
       solveStepInto(problem, kkt, order, direction, lambda);
+      // without rigid rows the step may carry a rigid motion (large where the shift is small): take it out
+      if (kkt.rigidRows === 0) {
+        for (let m = 0; m < 3; m++) {
+          const o = m * t0;
+          let dot = 0;
+          for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
+          for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
+        }
+      }
       // the merit's multipliers: the new pressures, kept within the physical bound
       for (let f = 0; f < cells; f++) {
         const l = lambda[f];
@@ -209,7 +222,7 @@ export function descend(
       }
       // slope = grad P . d - lambda . J d - kappa sum (T - A) J d / T with J d = r; d^T B d = -grad P . d
       // + (unclamped lambda) . r, which the curvature approximates with the clamped one
-      const dbd = -gd + lr;
+      const dbd = kkt.rigidRows === 0 ? stepCurvature(problem, cache, hessianPressures, tau, shift, direction) : -gd + lr;
       // Is d not downhill on Phi(.; lambda)? Weigh the areas more (q > 0 whenever r is not 0).
       if (gd - lr - kappa * q >= 0 && q > ROUNDING && kappa < KAPPA_MAX) {
         kappa = Math.min(KAPPA_MAX, Math.max(2 * kappa, (2 * (gd - lr)) / q));
@@ -262,6 +275,7 @@ export function descend(
       tau = raise(tau);
       cut *= 0.5;
     }
+    if ((globalThis as any).TRACE) console.log(iterations, 'P', perimeter.toFixed(6), 'g', gmax.toExponential(2), 'viol', violation.toExponential(2), 'short', shortest(problem, chords, targets).chord.toExponential(2), 'tau', tau.toExponential(2), accepted, 'cut', cut);
     if (!accepted) {
       // restore the cache at z and stop: no admissible step lowers Phi
       perimeter = perimeterInto(problem, z, cache, areas);

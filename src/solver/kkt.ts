@@ -16,10 +16,11 @@
 // reduced matrix is factored by the symmetric indefinite LDL^T of ldlt.ts, whose inertia tells whether
 // B is positive definite on the null space of the constraints (Haynsworth inertia additivity: the
 // eliminated pivots count with their signs; "Matrix Computations", 4th ed., 2013, §4.4 and the Schur
-// complement): it is exactly when n + 3 eigenvalues are negative and none is zero.
+// complement): it is exactly when n + 3 eigenvalues are negative and none is zero. With a shift the
+// rigid rows are not needed (the shift is positive on the translations) and are left out.
 //
 // Layout of the reduced unknowns: coordinates 0 .. 2V, kept bulges 2V .. 2V + K, pressures, then the
-// three rigid multipliers.
+// three rigid multipliers when there are rigid rows.
 
 import { type Inertia, symmetricFactorInto, symmetricSolveInto } from './ldlt.ts';
 import type { ClusterProblem } from './residual.ts';
@@ -63,6 +64,8 @@ export interface KktWorkspace {
   eliminated: Float64Array;
   /** Inertia of the last factorisation. */
   inertia: Inertia;
+  /** Rigid-motion rows of the last factorisation: 3 without a shift, 0 with one. */
+  rigidRows: number;
 }
 
 /** Allocate the buffers for `problem`'s size. */
@@ -76,6 +79,7 @@ export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
     slots: new Int32Array(walls),
     eliminated: new Float64Array(walls * ELIMINATED_STRIDE),
     inertia: { negative: 0, zero: 0, positive: 0 },
+    rigidRows: 3,
   };
 }
 
@@ -84,8 +88,10 @@ export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
  * at z; mu: pressures of the Hessian; lengthGrad: the perimeter's gradient; change: r, the area change
  * asked of each cell; rigid: the three rigid motions, 3 * 2V). Returns the order of the reduced system
  * and leaves its inertia in kw.inertia, counted with the eliminated pivots' signs, so that the step's
- * B is positive definite on the constraints' null space exactly when kw.inertia.negative = n + 3 and
- * kw.inertia.zero = 0.
+ * B is positive definite on the constraints' null space exactly when kw.inertia.negative = n +
+ * kw.rigidRows and kw.inertia.zero = 0. The rigid rows are left out when tau > 0: the shift then makes
+ * B positive definite on the translations, which the perimeter does not see, and the step's rigid part
+ * is an irrelevant motion of the whole drawing.
  */
 export function factorStepInto(
   problem: ClusterProblem, z: Float64Array, cache: Float64Array, mu: Float64Array, tau: number,
@@ -131,7 +137,10 @@ export function factorStepInto(
     }
   }
   const p0 = t0 + kept;
-  const n = p0 + cells + 3;
+  // with a shift, B is positive definite on the translations and needs no rigid rows
+  const rigidRows = tau === 0 ? 3 : 0;
+  const n = p0 + cells + rigidRows;
+  kw.rigidRows = rigidRows;
   matrix.fill(0, 0, n * n);
   rhs.fill(0, 0, n);
   let negativePivots = 0;
@@ -245,7 +254,7 @@ export function factorStepInto(
     rhs[i] -= lengthGrad[i];
   }
   for (let f = 0; f < cells; f++) rhs[p0 + f] -= change[f];
-  for (let m = 0; m < 3; m++) {
+  for (let m = 0; m < rigidRows; m++) {
     const row = (p0 + cells + m) * n;
     const o = m * t0;
     for (let i = 0; i < t0; i++) matrix[row + i] = rigid[o + i];
@@ -272,7 +281,7 @@ export function solveStepInto(
   const t0 = 2 * junctions;
   const { matrix, rhs, pivots, slots, eliminated } = kw;
   symmetricSolveInto(matrix, order, pivots, rhs);
-  const p0 = order - cells - 3;
+  const p0 = order - cells - kw.rigidRows;
   for (let i = 0; i < t0; i++) d[i] = rhs[i];
   for (let f = 0; f < cells; f++) lambda[f] = rhs[p0 + f];
   for (let k = 0; k < walls; k++) {
@@ -322,4 +331,48 @@ export function rigidInto(z: Float64Array, junctions: number, rigid: Float64Arra
     rigid[2 * t0 + 2 * v] = -(z[2 * v + 1] - cy) * rn;
     rigid[2 * t0 + 2 * v + 1] = (z[2 * v] - cx) * rn;
   }
+}
+
+/**
+ * d^T B d for B = H(mu) + tau S of factorStepInto at z (cache as there), wall by wall: the curvature of
+ * the step's model along d (2V + E numbers).
+ */
+export function stepCurvature(
+  problem: ClusterProblem, cache: Float64Array, mu: Float64Array, tau: number, shift: Float64Array, d: Float64Array,
+): number {
+  const { junctions, walls, starts, ends, lefts, rights } = problem;
+  const t0 = 2 * junctions;
+  let sum = 0;
+  for (let i = 0, m = t0 + walls; i < m; i++) sum += tau * shift[i] * d[i] * d[i];
+  for (let k = 0; k < walls; k++) {
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const w = k * WALL_STRIDE;
+    const dx = cache[w + W_DX];
+    const dy = cache[w + W_DY];
+    const c = cache[w + W_C];
+    const g1 = cache[w + W_G1];
+    const h = cache[w + W_H];
+    const h1 = cache[w + W_H1];
+    const l = lefts[k];
+    const r = rights[k];
+    const p = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const ux = c > 0 ? dx / c : 0;
+    const uy = c > 0 ? dy / c : 0;
+    const gc = c > 0 ? cache[w + W_G] / c : 0;
+    const mxx = gc * (1 - ux * ux) + 2 * p * h;
+    const mxy = -gc * ux * uy;
+    const myy = gc * (1 - uy * uy) + 2 * p * h;
+    const mxt = g1 * ux + 2 * p * h1 * dx;
+    const myt = g1 * uy + 2 * p * h1 * dy;
+    const mtt = c * cache[w + W_G2] + p * c * c * cache[w + W_H2];
+    // the chord moves by e = d_b - d_a; the cross-product term couples a and b antisymmetrically
+    const ex = d[b] - d[a];
+    const ey = d[b + 1] - d[a + 1];
+    const dt = d[t0 + k];
+    sum += mxx * ex * ex + 2 * mxy * ex * ey + myy * ey * ey + 2 * dt * (mxt * ex + myt * ey) + mtt * dt * dt;
+    // -D X with X = (a x b) / 2: d^T (d2X) d = 2 (da_x db_y - da_y db_x) / 2
+    sum -= p * (d[a] * d[b + 1] - d[a + 1] * d[b]);
+  }
+  return sum;
 }
