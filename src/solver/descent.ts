@@ -64,8 +64,11 @@ const WATCH_GRADIENT = 0.5;
 const ENDGAME = 1e-2;
 // Below this area error the Hessian takes the last step's pressures instead of fitting them.
 const FIT_BELOW = 0.1;
-// Most growth (or shrinkage) of a cell's area asked for in one step.
+// Most growth (or shrinkage) of a cell's area asked for in one step: GROW at first, doubled (up to
+// GROW_MAX) after each step the model predicted well, halved (down to GROW) after each it did not.
 const GROW = 2;
+const GROW_MAX = 16;
+const GROW_UP = 2;
 // Pressures in the Hessian are kept below PRESSURE_CAP times (n times the largest wall curvature + 1):
 // at equilibrium a pressure is a sum of at most n curvature jumps on a path to the outside.
 const PRESSURE_CAP = 4;
@@ -111,6 +114,7 @@ export function descend(
   } = ws;
   for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
   let kappa = KAPPA_FIRST;
+  let grow = GROW;
   let tau = warm ? 0 : TAU_START;
   let perimeter = perimeterInto(problem, z, cache, areas);
   let phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
@@ -171,7 +175,7 @@ export function descend(
     for (let f = 0; f < cells; f++) {
       const m = fitted ? hessianPressures[f] : violation > FIT_BELOW ? mu[f] : mult[f];
       hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
-      change[f] = aimOf(targets[f], areas[f]) - areas[f];
+      change[f] = aimOf(targets[f], areas[f], grow) - areas[f];
     }
     // Near an equilibrium? Newton's own step (no shift) converges quadratically from here.
     if (gmax < ENDGAME && violation < ENDGAME) tau = 0;
@@ -267,15 +271,20 @@ export function descend(
         const rho = predicted < 0 ? change / predicted : 0;
         if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
           accepted = true;
-          if ((flat || rho > GOOD) && cut === 1 && !raised) tau = tau * LOWER < TAU_MIN ? 0 : tau * LOWER;
-          else if (rho < POOR) tau = raise(tau);
+          if ((flat || rho > GOOD) && cut === 1 && !raised) {
+            tau = tau * LOWER < TAU_MIN ? 0 : tau * LOWER;
+            grow = Math.min(GROW_MAX, grow * GROW_UP);
+          } else if (rho < POOR) {
+            tau = raise(tau);
+            grow = Math.max(GROW, grow / GROW_UP);
+          }
           break;
         }
       }
       tau = raise(tau);
+      grow = Math.max(GROW, grow / GROW_UP);
       cut *= 0.5;
     }
-    if ((globalThis as any).TRACE) console.log(iterations, 'P', perimeter.toFixed(6), 'g', gmax.toExponential(2), 'viol', violation.toExponential(2), 'short', shortest(problem, chords, targets).chord.toExponential(2), 'tau', tau.toExponential(2), accepted, 'cut', cut);
     if (!accepted) {
       // restore the cache at z and stop: no admissible step lowers Phi
       perimeter = perimeterInto(problem, z, cache, areas);
@@ -308,10 +317,10 @@ function raise(tau: number): number {
 }
 
 // The area a step aims at: the target, or at most GROW times (at least 1/GROW of) the present area.
-function aimOf(target: number, area: number): number {
+function aimOf(target: number, area: number, grow: number): number {
   if (!(area > 0)) return target;
-  if (target > GROW * area) return GROW * area;
-  if (target * GROW < area) return area / GROW;
+  if (target > grow * area) return grow * area;
+  if (target * grow < area) return area / grow;
   return target;
 }
 

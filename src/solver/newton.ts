@@ -40,6 +40,12 @@ export interface EquilibriumStart {
 // The barycentric drawing is replaced by the construction-path drawing when some cell comes out below
 // this fraction of its target area (there the descent would first spend tens of steps growing it).
 const SMALL_START = 1e-4;
+// A barycentric start that ends in a collapse is tried again from the construction-path drawing when
+// some cell started more than FAR_START times off its target and the targets differ by more than
+// SPREAD (the barycentric drawing knows nothing of the targets; at equal areas a second start does not
+// pay).
+const FAR_START = 6;
+const SPREAD = 6;
 
 interface Attempt {
   verdict: Verdict;
@@ -152,21 +158,64 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
   checkInput(map, areas);
   if (map.junctionCount === 0) return circleAnswer(map, areas);
   const problem = problemOf(map);
+  const { cells } = problem;
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   const first = drawStart(map, problem, ws, 'auto');
+  // how far the start's areas are from the targets, and the targets from each other (largest factors)
+  cellAreasInto(problem, ws.z, ws.areas);
+  let far = 1;
+  let least = Infinity;
+  let most = 0;
+  for (let f = 0; f < cells; f++) {
+    const q = ws.areas[f] / ws.targets[f];
+    const r = q > 1 ? q : 1 / q;
+    if (!(r <= far)) far = r;
+    least = Math.min(least, ws.targets[f]);
+    most = Math.max(most, ws.targets[f]);
+  }
   let attempt = settle(problem, ws, opt, false);
   let restarts = 0;
-  // Did the descent not end? Begin again from the other drawing.
-  if (attempt.verdict.status === 'no-convergence') {
-    const second = drawStart(map, problem, ws, first === 'barycentric' ? 'insertion' : 'barycentric');
-    if (second !== null) {
-      const again = settle(problem, ws, opt, false);
-      attempt = { verdict: again.verdict, iterations: attempt.iterations + again.iterations };
+  const status = attempt.verdict.status;
+  if (status === 'no-convergence') {
+    // Did the descent not end? Begin again from the other drawing.
+    const again = secondStart(map, problem, ws, opt, first === 'barycentric' ? 'insertion' : 'barycentric', attempt, true);
+    if (again !== null) {
+      attempt = again;
+      restarts = 1;
+    }
+  } else if ((status === 'wall-collapse' || status === 'cell-collapse') && first === 'barycentric' &&
+      far > FAR_START && most > SPREAD * least) {
+    // Did a barycentric start far from unequal targets end in a collapse? The descent came a long way in
+    // the areas, through shapes the targets' equilibrium need not be reached by: begin again from the
+    // construction-path drawing, which starts at the targets' areas, and keep what it finds if certified.
+    const again = secondStart(map, problem, ws, opt, 'insertion', attempt, false);
+    if (again !== null) {
+      attempt = again;
       restarts = 1;
     }
   }
   return answerOf(map, problem, ws, areas, unit, opt, attempt, restarts);
+}
+
+// Relax again from another first drawing; the first attempt's state is kept (and its verdict returned,
+// with the iterations of both) unless the second ends ok, or `replace` and the second ends at all.
+function secondStart(
+  map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions,
+  which: 'barycentric' | 'insertion', first: Attempt, replace: boolean,
+): Attempt | null {
+  ws.saved.set(ws.z);
+  if (drawStart(map, problem, ws, which) === null) {
+    ws.z.set(ws.saved);
+    return null;
+  }
+  const again = settle(problem, ws, opt, false);
+  const iterations = first.iterations + again.iterations;
+  if (again.verdict.status === 'ok' || (replace && again.verdict.status !== 'no-convergence')) {
+    return { verdict: again.verdict, iterations };
+  }
+  ws.z.set(ws.saved);
+  return { verdict: first.verdict, iterations };
 }
 
 /**
