@@ -22,7 +22,7 @@
 import { factorStepInto, rigidInto, solveStepInto, stepCurvature } from './kkt.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
 import * as penalty from './penalty.ts';
-import { fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto } from './penalty.ts';
+import { fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './residual.ts';
 import type { Workspace } from './workspace.ts';
 
@@ -132,7 +132,7 @@ export function descend(
       end = 'non-finite';
       break;
     }
-    if (gmax <= opt.tolerance && violation <= opt.tolerance) {
+    if (gmax <= opt.tolerance && violation <= opt.tolerance && scaledGradientMax(problem, cache, mu, grad) <= opt.tolerance) {
       end = 'settled';
       break;
     }
@@ -289,7 +289,7 @@ export function descend(
       // restore the cache at z and stop: no admissible step lowers Phi
       perimeter = perimeterInto(problem, z, cache, areas);
       gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
-      end = failed ? 'non-finite' : gmax <= CLOSE && violation <= CLOSE ? 'settled' : 'stalled';
+      end = failed ? 'non-finite' : gmax <= CLOSE && violation <= CLOSE && scaledGradientMax(problem, cache, mu, grad) <= CLOSE ? 'settled' : 'stalled';
       break;
     }
     for (let f = 0; f < cells; f++) {

@@ -147,6 +147,32 @@ export function penaltyGradientInto(
 }
 
 /**
+ * The largest entry of the last penaltyGradientInto's gradient in residualInto's scaling: junction rows
+ * as they are (at Laplace-Young balance they are sums of unit tangents), bulge rows as the relative
+ * Laplace-Young error |kappa - (p_r - p_l)| / (1 + |p_l - p_r|) (they are c^2 h' times the curvature
+ * error, which the raw gradient of a short wall would hide).
+ */
+export function scaledGradientMax(problem: ClusterProblem, cache: Float64Array, mu: Float64Array, grad: Float64Array): number {
+  const { walls, lefts, rights, junctions } = problem;
+  const t0 = 2 * junctions;
+  let worst = 0;
+  for (let i = 0; i < t0; i++) {
+    const v = Math.abs(grad[i]);
+    if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
+  }
+  for (let k = 0; k < walls; k++) {
+    const w = k * WALL_STRIDE;
+    const c = cache[w + W_C];
+    const l = lefts[k];
+    const r = rights[k];
+    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const v = Math.abs(grad[t0 + k]) / (c * c * cache[w + W_H1] * (1 + Math.abs(d)));
+    if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
+  }
+  return worst;
+}
+
+/**
  * Least-squares pressures at z: the mu minimising |grad P - sum mu_f grad A_f| (the pressures that best
  * explain the present shape; at an equilibrium they are its pressures). Reads the cache of the last
  * perimeterInto at z and the perimeter gradient; `cellGrad` is scratch of n (2V + E), `normal` of n^2,
