@@ -47,17 +47,16 @@ const WALL_STRIDE = penalty.WALL_STRIDE;
 // cell area 1).
 const KAPPA_FIRST = 10;
 const KAPPA_MAX = 1e8;
-// A descent this close to an equilibrium (gradient, relative area error) that stalls, or does not halve
-// its gradient in FLOOR_STEPS steps, is at the rounding floor: settled (the certificate judges it).
+// A stalled descent this close to an equilibrium (gradient, relative area error) is at the rounding
+// floor: settled (the certificate judges it).
 const CLOSE = 1e-9;
-const FLOOR_STEPS = 3;
 // A wall below the collapse length counts as collapsing only once the areas are this close to their
 // targets (a start may draw small cells with short walls that grow first).
 const SETTLED = 0.02;
-// Early collapse: below WATCH collapse lengths the shortest wall is watched; when after WATCH_STEPS
-// steps its chord is below WATCH_SHRINK of where it was and the gradient above WATCH_GRADIENT of where
-// it was, it counts as collapsing.
-const WATCH = 50;
+// Early collapse: below WATCH the shortest wall is watched; when after WATCH_STEPS steps its chord
+// is below WATCH_SHRINK of where it was and the gradient above WATCH_GRADIENT of where it was, it
+// counts as collapsing.
+const WATCH = 0.05;
 const WATCH_STEPS = 3;
 const WATCH_SHRINK = 1;
 const WATCH_GRADIENT = 0.5;
@@ -116,15 +115,13 @@ export function descend(
   for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
   let kappa = KAPPA_FIRST;
   let grow = GROW;
-  let tau = warm ? TAU_MIN : TAU_START;
+  let tau = warm ? 0 : TAU_START;
   let perimeter = perimeterInto(problem, z, cache, areas);
   let phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
   let gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
   let violation = violationOf(areas, targets, cells);
   let iterations = 0;
   let end: DescentEnd = 'max-iterations';
-  let floorBest = Infinity;
-  let floorSteps = 0;
   let watched = -1;
   let watchSteps = 0;
   let watchChord = Infinity;
@@ -139,16 +136,6 @@ export function descend(
       end = 'settled';
       break;
     }
-    // Is the descent within CLOSE of an equilibrium without getting closer? It is at the rounding floor.
-    if (gmax <= CLOSE && violation <= CLOSE) {
-      if (gmax < 0.5 * floorBest) {
-        floorBest = gmax;
-        floorSteps = 0;
-      } else if (++floorSteps >= FLOOR_STEPS && scaledGradientMax(problem, cache, mu, grad) <= CLOSE) {
-        end = 'settled';
-        break;
-      }
-    }
     // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
     const short = shortest(problem, chords, targets);
     if (violation <= SETTLED && short.chord < opt.collapseLength) {
@@ -158,15 +145,14 @@ export function descend(
     // Is the same wall shrinking step after step while the gradient stays finite? The perimeter has a
     // kink at a zero-length wall, so a descent towards it keeps a finite gradient, while one towards an
     // equilibrium drives the gradient to zero: it is a collapse, seen before the wall is that short.
-    const watch = WATCH * opt.collapseLength;
-    if (violation <= SETTLED && short.chord < watch && short.wall === watched) {
+    if (violation <= SETTLED && short.chord < WATCH && short.wall === watched) {
       watchSteps++;
       if (watchSteps >= WATCH_STEPS && short.chord < WATCH_SHRINK * watchChord && gmax > WATCH_GRADIENT * watchGradient) {
         end = 'collapse';
         break;
       }
     } else {
-      watched = short.chord < watch ? short.wall : -1;
+      watched = short.chord < WATCH ? short.wall : -1;
       watchSteps = 0;
       watchChord = short.chord;
       watchGradient = gmax;
@@ -192,7 +178,7 @@ export function descend(
       change[f] = aimOf(targets[f], areas[f], grow) - areas[f];
     }
     // Near an equilibrium? Newton's own step (no shift) converges quadratically from here.
-    if (gmax < ENDGAME && violation < ENDGAME) tau = TAU_MIN;
+    if (gmax < ENDGAME && violation < ENDGAME) tau = 0;
     let accepted = false;
     let failed = false;
     let phiTrial = phi;
@@ -286,7 +272,7 @@ export function descend(
         if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
           accepted = true;
           if ((flat || rho > GOOD) && cut === 1 && !raised) {
-            tau = Math.max(TAU_MIN, tau * LOWER);
+            tau = tau * LOWER < TAU_MIN ? 0 : tau * LOWER;
             grow = Math.min(GROW_MAX, grow * GROW_UP);
           } else if (rho < POOR) {
             tau = raise(tau);
@@ -327,7 +313,7 @@ export function descend(
 
 // The next shift after a refusal.
 function raise(tau: number): number {
-  return tau < TAU_FIRST ? TAU_FIRST : 4 * tau;
+  return tau === 0 ? TAU_FIRST : 4 * tau;
 }
 
 // The area a step aims at: the target, or at most GROW times (at least 1/GROW of) the present area.
