@@ -53,8 +53,6 @@ interface Attempt {
 }
 
 const NO_CONVERGENCE: Verdict = { status: 'no-convergence', wall: null, cell: null };
-// Newton iterations allowed for the polish to the exact targets.
-const POLISH = 8;
 
 // Descend from ws.z and name the end.
 function settle(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, warm: boolean): Attempt {
@@ -68,17 +66,7 @@ function settle(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptio
     } else if (!ordersHold(problem, ws.z)) verdict = { status: 'walls-cross', wall: null, cell: null };
     else verdict = OK;
   }
-  let iterations = d.iterations;
-  if (verdict === OK) {
-    // polish to the exact targets (Newton's steps from an equilibrium of targets a float's rounding away)
-    ws.rounded.set(ws.targets);
-    ws.targets.set(ws.exactTargets);
-    const polish = descend(problem, ws, opt, POLISH, true);
-    iterations += polish.iterations;
-    if (polish.end !== 'settled') verdict = NO_CONVERGENCE;
-    ws.targets.set(ws.rounded);
-  }
-  return { verdict, iterations };
+  return { verdict, iterations: d.iterations };
 }
 
 // Write a first drawing into ws.z: with 'auto' the barycentric one, or the construction-path one where
@@ -149,17 +137,11 @@ function checkInput(map: CubicMap, areas: Float64Array): void {
   }
 }
 
-// Normalised targets (mean 1) into ws.exactTargets, and rounded to single precision into ws.targets,
-// which the descent works with: the same query at another scale then takes bit for bit the same path
-// (its normalised targets differ in the last bits only), and the answer is polished to the exact ones.
 function normaliseTargets(problem: ClusterProblem, ws: Workspace, areas: Float64Array): number {
   let total = 0;
   for (let f = 0; f < problem.cells; f++) total += areas[f];
   const unit = Math.sqrt(total / problem.cells);
-  for (let f = 0; f < problem.cells; f++) {
-    ws.exactTargets[f] = areas[f] / (unit * unit);
-    ws.targets[f] = Math.fround(ws.exactTargets[f]);
-  }
+  for (let f = 0; f < problem.cells; f++) ws.targets[f] = areas[f] / (unit * unit);
   return unit;
 }
 
@@ -261,10 +243,9 @@ export function relaxFrom(
   const unit = normaliseTargets(problem, ws, areas);
   const t0 = 2 * junctions;
   const p0 = t0 + walls;
-  // (rounded to single precision like the targets, so that a scaled query starts from the same state)
-  for (let i = 0; i < t0; i++) ws.z[i] = Math.fround(start.coords[i] / unit);
-  for (let k = 0; k < walls; k++) ws.z[t0 + k] = Math.fround(start.bulges[k]);
-  for (let f = 0; f < cells; f++) ws.z[p0 + f] = Math.fround(start.pressures[f] * unit);
+  for (let i = 0; i < t0; i++) ws.z[i] = start.coords[i] / unit;
+  for (let k = 0; k < walls; k++) ws.z[t0 + k] = start.bulges[k];
+  for (let f = 0; f < cells; f++) ws.z[p0 + f] = start.pressures[f] * unit;
   cellAreasInto(problem, ws.z, ws.areas);
   let valid = ordersHold(problem, ws.z);
   for (let f = 0; f < cells; f++) if (!(ws.areas[f] > 0) || !Number.isFinite(ws.z[p0 + f])) valid = false;

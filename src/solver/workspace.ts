@@ -17,12 +17,8 @@ export interface Workspace {
   saved: Float64Array;
   /** Residual of the equilibrium equations at z, length size. */
   r: Float64Array;
-  /** Normalised target areas (mean 1) as the descent uses them, length n. */
+  /** Normalised target areas (mean 1), length n. */
   targets: Float64Array;
-  /** Normalised target areas, exact, length n. */
-  exactTargets: Float64Array;
-  /** Copy of the rounded targets while the exact ones are in use, length n. */
-  rounded: Float64Array;
   /** Cell areas at z, length n. */
   areas: Float64Array;
   /** Cell areas at the trial state, length n. */
@@ -78,8 +74,6 @@ export function workspaceFor(problem: ClusterProblem): Workspace {
       saved: new Float64Array(size),
       r: new Float64Array(size),
       targets: new Float64Array(cells),
-      exactTargets: new Float64Array(cells),
-      rounded: new Float64Array(cells),
       areas: new Float64Array(cells),
       trialAreas: new Float64Array(cells),
       mult: new Float64Array(cells),
