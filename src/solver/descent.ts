@@ -9,10 +9,11 @@
 // energy, Phi(.; lambda) = perimeter - sum lambda_f (A_f - T_f) + (kappa/2) sum (A_f - T_f)^2 / T_f
 // (penalty.ts): it is a descent direction of Phi once kappa is large enough (slope = -d^T B d - kappa
 // sum (T_f - A_f) r_f / T_f), kappa is raised when it is not, and tau is adapted like a trust region:
-// raised when a step is refused or predicts badly, lowered when the model predicts well, down to 0
-// near a stable equilibrium, where the steps are Newton's on the equilibrium equations and converge
-// quadratically. Keeping the areas right while the shape relaxes matters: a shape relaxed at wrong areas
-// can slide away from a delicate equilibrium (a lens along its wall).
+// raised when a step is refused or predicts badly, lowered when the model predicts well, down to a
+// vanishing TAU_MIN near a stable equilibrium, where the steps are Newton's on the equilibrium
+// equations and converge quadratically (a shift that never quite vanishes keeps the step defined at a
+// zero mode, a lens sliding along its wall). Keeping the areas right while the shape relaxes matters: a
+// shape relaxed at wrong areas can slide away from a delicate equilibrium.
 //
 // A cell drawn far too small asks for at most GROW times its area per step, so it grows in a few steps
 // rather than one wild one; the pressures in the Hessian are kept to a physical bound for the same
@@ -47,16 +48,17 @@ const WALL_STRIDE = penalty.WALL_STRIDE;
 // cell area 1).
 const KAPPA_FIRST = 10;
 const KAPPA_MAX = 1e8;
-// A stalled descent this close to an equilibrium (gradient, relative area error) is at the rounding
-// floor: settled (the certificate judges it).
+// A descent this close to an equilibrium (gradient, relative area error) that stalls, or does not halve
+// its gradient in FLOOR_STEPS steps, is at the rounding floor: settled (the certificate judges it).
 const CLOSE = 1e-9;
+const FLOOR_STEPS = 3;
 // A wall below the collapse length counts as collapsing only once the areas are this close to their
 // targets (a start may draw small cells with short walls that grow first).
 const SETTLED = 0.02;
-// Early collapse: below WATCH the shortest wall is watched; when after WATCH_STEPS steps its chord
-// is below WATCH_SHRINK of where it was and the gradient above WATCH_GRADIENT of where it was, it
-// counts as collapsing.
-const WATCH = 0.05;
+// Early collapse: below WATCH collapse lengths the shortest wall is watched; when after WATCH_STEPS
+// steps its chord is below WATCH_SHRINK of where it was and the gradient above WATCH_GRADIENT of where
+// it was, it counts as collapsing.
+const WATCH = 50;
 const WATCH_STEPS = 3;
 const WATCH_SHRINK = 1;
 const WATCH_GRADIENT = 0.5;
@@ -74,12 +76,11 @@ const GROW_UP = 2;
 const PRESSURE_CAP = 4;
 // Smallest factor by which one step may shrink a chord.
 const SHRINK = 0.1;
-// Shift control: factorisations tried per step; smallest non-zero shift and the first one tried; the shift's scale on a
-// variable is at least DIAGONAL_FLOOR of the largest; pivots are counted by their signs (a singular
-// matrix is refused by its solution not being finite). A step is taken
-// when Phi falls by at least ACCEPT of the model's prediction (or both are below ROUNDING of Phi);
-// the shift is lowered (by LOWER) above GOOD, unless it had to be raised in the same step, and raised
-// below POOR.
+// Shift control: factorisations tried per step; the smallest shift and the first one tried after a
+// refusal; the shift's scale on a variable is at least DIAGONAL_FLOOR of the largest. A step is taken
+// when Phi falls by at least ACCEPT of the model's prediction (or both are below ROUNDING of Phi); the
+// shift is lowered (by LOWER) above GOOD, unless it had to be raised in the same step, and raised below
+// POOR.
 const MAX_ATTEMPTS = 40;
 const TAU_MIN = 1e-8;
 const TAU_FIRST = 1e-4;
@@ -115,13 +116,15 @@ export function descend(
   for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
   let kappa = KAPPA_FIRST;
   let grow = GROW;
-  let tau = warm ? 0 : TAU_START;
+  let tau = warm ? TAU_MIN : TAU_START;
   let perimeter = perimeterInto(problem, z, cache, areas);
   let phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
   let gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
   let violation = violationOf(areas, targets, cells);
   let iterations = 0;
   let end: DescentEnd = 'max-iterations';
+  let floorBest = Infinity;
+  let floorSteps = 0;
   let watched = -1;
   let watchSteps = 0;
   let watchChord = Infinity;
@@ -136,25 +139,37 @@ export function descend(
       end = 'settled';
       break;
     }
+    // Is the descent within CLOSE of an equilibrium without getting closer? It is at the rounding floor.
+    if (gmax <= CLOSE && violation <= CLOSE) {
+      if (gmax < 0.5 * floorBest) {
+        floorBest = gmax;
+        floorSteps = 0;
+      } else if (++floorSteps >= FLOOR_STEPS && scaledGradientMax(problem, cache, mu, grad) <= CLOSE) {
+        end = 'settled';
+        break;
+      }
+    }
     // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
-    const short = shortest(problem, chords, targets);
-    if (violation <= SETTLED && short.chord < opt.collapseLength) {
+    const shortChord = shortest(problem, chords, targets);
+    const shortWall = SHORTEST_WALL;
+    if (violation <= SETTLED && shortChord < opt.collapseLength) {
       end = 'collapse';
       break;
     }
     // Is the same wall shrinking step after step while the gradient stays finite? The perimeter has a
     // kink at a zero-length wall, so a descent towards it keeps a finite gradient, while one towards an
     // equilibrium drives the gradient to zero: it is a collapse, seen before the wall is that short.
-    if (violation <= SETTLED && short.chord < WATCH && short.wall === watched) {
+    const watch = WATCH * opt.collapseLength;
+    if (violation <= SETTLED && shortChord < watch && shortWall === watched) {
       watchSteps++;
-      if (watchSteps >= WATCH_STEPS && short.chord < WATCH_SHRINK * watchChord && gmax > WATCH_GRADIENT * watchGradient) {
+      if (watchSteps >= WATCH_STEPS && shortChord < WATCH_SHRINK * watchChord && gmax > WATCH_GRADIENT * watchGradient) {
         end = 'collapse';
         break;
       }
     } else {
-      watched = short.chord < WATCH ? short.wall : -1;
+      watched = shortChord < watch ? shortWall : -1;
       watchSteps = 0;
-      watchChord = short.chord;
+      watchChord = shortChord;
       watchGradient = gmax;
     }
     if (iterations >= budget) break;
@@ -177,8 +192,8 @@ export function descend(
       hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
       change[f] = aimOf(targets[f], areas[f], grow) - areas[f];
     }
-    // Near an equilibrium? Newton's own step (no shift) converges quadratically from here.
-    if (gmax < ENDGAME && violation < ENDGAME) tau = 0;
+    // Near an equilibrium? Newton's own step (the least shift) converges quadratically from here.
+    if (gmax < ENDGAME && violation < ENDGAME) tau = TAU_MIN;
     let accepted = false;
     let failed = false;
     let phiTrial = phi;
@@ -272,7 +287,7 @@ export function descend(
         if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
           accepted = true;
           if ((flat || rho > GOOD) && cut === 1 && !raised) {
-            tau = tau * LOWER < TAU_MIN ? 0 : tau * LOWER;
+            tau = Math.max(TAU_MIN, tau * LOWER);
             grow = Math.min(GROW_MAX, grow * GROW_UP);
           } else if (rho < POOR) {
             tau = raise(tau);
@@ -307,13 +322,13 @@ export function descend(
   }
   if (z !== ws.z) ws.z.set(z.subarray(0, dim));
   for (let f = 0; f < cells; f++) ws.z[dim + f] = mu[f];
-  const s = shortest(problem, chords, targets);
-  return { end, iterations, wall: s.wall, chord: s.chord };
+  const chord = shortest(problem, chords, targets);
+  return { end, iterations, wall: SHORTEST_WALL, chord };
 }
 
 // The next shift after a refusal.
 function raise(tau: number): number {
-  return tau === 0 ? TAU_FIRST : 4 * tau;
+  return tau < TAU_FIRST ? TAU_FIRST : 4 * tau;
 }
 
 // The area a step aims at: the target, or at most GROW times (at least 1/GROW of) the present area.
@@ -369,8 +384,10 @@ function violationOf(areas: Float64Array, targets: Float64Array, cells: number):
   return worst;
 }
 
-// The wall of smallest chord relative to sqrt of the smaller target area on its two sides.
-function shortest(problem: ClusterProblem, chords: Float64Array, targets: Float64Array): { wall: number; chord: number } {
+// The smallest chord relative to sqrt of the smaller target area on its two sides; its wall is left in
+// SHORTEST_WALL.
+let SHORTEST_WALL = 0;
+function shortest(problem: ClusterProblem, chords: Float64Array, targets: Float64Array): number {
   const { walls, lefts, rights } = problem;
   let wall = 0;
   let chord = Infinity;
@@ -384,7 +401,8 @@ function shortest(problem: ClusterProblem, chords: Float64Array, targets: Float6
       wall = k;
     }
   }
-  return { wall, chord };
+  SHORTEST_WALL = wall;
+  return chord;
 }
 
 // Whether a trial state keeps every bulge inside (-pi, pi) and no chord below SHRINK of its length at z.

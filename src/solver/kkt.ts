@@ -22,7 +22,7 @@
 // Layout of the reduced unknowns: coordinates 0 .. 2V, kept bulges 2V .. 2V + K, pressures, then the
 // three rigid multipliers when there are rigid rows.
 
-import { type Inertia, symmetricFactorInto, symmetricSolveInto } from './ldlt.ts';
+import { type Inertia, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto } from './ldlt.ts';
 import type { ClusterProblem } from './residual.ts';
 
 // Offsets of the per-wall cache of penalty.ts (WALL_STRIDE numbers per wall).
@@ -66,6 +66,10 @@ export interface KktWorkspace {
   inertia: Inertia;
   /** Rigid-motion rows of the last factorisation: 3 without a shift, 0 with one. */
   rigidRows: number;
+  /** Negative pivots among the eliminated bulges of the last assembly. */
+  negativePivots: number;
+  /** Whether the last factorisation needed no pivoting. */
+  plain: boolean;
 }
 
 /** Allocate the buffers for `problem`'s size. */
@@ -80,6 +84,8 @@ export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
     eliminated: new Float64Array(walls * ELIMINATED_STRIDE),
     inertia: { negative: 0, zero: 0, positive: 0 },
     rigidRows: 3,
+    negativePivots: 0,
+    plain: true,
   };
 }
 
@@ -98,9 +104,25 @@ export function factorStepInto(
   shift: Float64Array, lengthGrad: Float64Array, change: Float64Array, rigid: Float64Array, kw: KktWorkspace,
   zeroTolerance: number,
 ): number {
+  // first without pivoting (stable when no pivot is small); else assembled again and pivoted
+  let n = assembleStepInto(problem, z, cache, mu, tau, shift, lengthGrad, change, rigid, kw);
+  kw.plain = plainFactorInto(kw.matrix, n, kw.pivots, zeroTolerance, kw.inertia);
+  if (!kw.plain) {
+    n = assembleStepInto(problem, z, cache, mu, tau, shift, lengthGrad, change, rigid, kw);
+    pivotedFactorInto(kw.matrix, n, kw.pivots, zeroTolerance, kw.inertia);
+  }
+  kw.inertia.negative += kw.negativePivots;
+  return n;
+}
+
+// Assemble the reduced matrix and right-hand side (see factorStepInto); returns the order.
+function assembleStepInto(
+  problem: ClusterProblem, z: Float64Array, cache: Float64Array, mu: Float64Array, tau: number,
+  shift: Float64Array, lengthGrad: Float64Array, change: Float64Array, rigid: Float64Array, kw: KktWorkspace,
+): number {
   const { junctions, walls, cells, starts, ends, lefts, rights } = problem;
   const t0 = 2 * junctions;
-  const { matrix, rhs, slots, eliminated, pivots } = kw;
+  const { matrix, rhs, slots, eliminated } = kw;
   // which bulges stay: those whose pivot is small against their column
   let kept = 0;
   for (let k = 0; k < walls; k++) {
@@ -259,8 +281,7 @@ export function factorStepInto(
     const o = m * t0;
     for (let i = 0; i < t0; i++) matrix[row + i] = rigid[o + i];
   }
-  const inertia = symmetricFactorInto(matrix, n, pivots, zeroTolerance, kw.inertia);
-  inertia.negative += negativePivots;
+  kw.negativePivots = negativePivots;
   return n;
 }
 
@@ -280,7 +301,8 @@ export function solveStepInto(
   const { junctions, walls, cells, starts, ends, lefts, rights } = problem;
   const t0 = 2 * junctions;
   const { matrix, rhs, pivots, slots, eliminated } = kw;
-  symmetricSolveInto(matrix, order, pivots, rhs);
+  if (kw.plain) plainSolveInto(matrix, order, rhs);
+  else symmetricSolveInto(matrix, order, pivots, rhs);
   const p0 = order - cells - kw.rigidRows;
   for (let i = 0; i < t0; i++) d[i] = rhs[i];
   for (let f = 0; f < cells; f++) lambda[f] = rhs[p0 + f];

@@ -56,9 +56,14 @@ let SAVED = new Float64Array(0);
 const PLAIN_PIVOT = 1e-12;
 const PLAIN_GROWTH = 1e4;
 
-// L D L^T without pivoting, row by row (dot products with the rows above): false when a pivot is below
-// PLAIN_PIVOT of the largest |entry|, the matrix then being left partly overwritten.
-function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia): boolean {
+// (row by row: dot products with the rows above)
+/**
+ * L D L^T of the symmetric n x n row-major matrix `a` (lower triangle read) without pivoting, in place as
+ * symmetricFactorInto leaves it, with its inertia in `out`. Returns false, leaving `a` partly
+ * overwritten, when the order needs pivoting: a pivot below PLAIN_PIVOT of the largest |entry|, or an
+ * entry l_ij^2 |d_j| above PLAIN_GROWTH times it.
+ */
+export function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia): boolean {
   let scale = 0;
   for (let i = 0; i < n; i++) {
     const ri = i * n;
@@ -106,8 +111,8 @@ function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTol
   return true;
 }
 
-// The factorisation with 1x1 and 2x2 diagonal pivots (see the file header).
-function pivotedFactorInto(
+/** The factorisation with 1x1 and 2x2 diagonal pivots of the file header, as symmetricFactorInto. */
+export function pivotedFactorInto(
   a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia,
 ): Inertia {
   if (COLUMN.length < n) {
@@ -304,6 +309,23 @@ export function symmetricSolveInto(a: Float64Array, n: number, pivots: Int32Arra
       b[k] = b[p];
       b[p] = tmp;
     }
+  }
+}
+
+/** Solve A x = b in place in b, with `a` from a successful plainFactorInto (no pivoting). */
+export function plainSolveInto(a: Float64Array, n: number, b: Float64Array): void {
+  for (let i = 1; i < n; i++) {
+    const ri = i * n;
+    let s = b[i];
+    for (let k = 0; k < i; k++) s -= a[ri + k] * b[k];
+    b[i] = s;
+  }
+  for (let i = 0; i < n; i++) b[i] /= a[i * n + i];
+  for (let k = n - 1; k > 0; k--) {
+    const rk = k * n;
+    const x = b[k];
+    if (x === 0) continue;
+    for (let i = 0; i < k; i++) b[i] -= a[rk + i] * x;
   }
 }
 

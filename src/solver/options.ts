@@ -20,12 +20,15 @@ export interface NewtonOptions {
    */
   certificateTolerance?: number;
   /**
-   * Wall chord, relative to sqrt(mean cell area), below which a wall counts as collapsing.
+   * Wall chord, relative to sqrt of the smaller target area of the cells on its two sides, below which
+   * a wall counts as collapsing (a wall below 50 times this that keeps shrinking while the gradient
+   * stays finite counts as collapsing too).
    * @default 1e-3
    */
   collapseLength?: number;
   /**
-   * Relative size below which a pivot eigenvalue of the KKT matrix counts as a zero mode.
+   * Relative size (to the largest entry) below which a pivot eigenvalue of the KKT matrix at the answer
+   * counts as a zero mode.
    * @default 1e-8
    */
   zeroTolerance?: number;

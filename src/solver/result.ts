@@ -4,17 +4,19 @@ import type { Certificate } from './certificate.ts';
 
 /**
  * How a relaxation ended.
- * - 'ok': a certified equilibrium (every certificate entry within tolerance, a valid drawing).
+ * - 'ok': a certified equilibrium (every certificate entry within tolerance, a valid drawing, and a
+ *   second variation whose inertia accounts for every constraint).
  * - 'wall-collapse': a wall shrinks to zero length on the way to the targets (the arrangement wants a
  *   T1 neighbour swap there); `collapsingWall` names it.
  * - 'cell-collapse': every wall of one cell shrinks together (the cell pinches off as a round bubble
  *   touching the rest at a point); `collapsingCell` names it.
  * - 'walls-cross': the equations are solved but two walls cross or the walls at a junction are out of
  *   the map's order, so the solution is not a drawing of this arrangement.
- * - 'fold': the equilibrium, followed from an equilibrium at other areas by area continuation, turns
- *   back before the target areas with no wall collapsing (a saddle-node: it meets another equilibrium
- *   and both vanish), so the arrangement has no equilibrium on that branch at the targets.
- * - 'no-convergence': Newton's method and the area continuation both stalled with no collapse in sight.
+ * - 'fold': an equilibrium branch followed by area continuation turned back before the targets. The
+ *   present relaxer does not continue in the areas and does not give this verdict; it stays a status
+ *   of catalogues written by earlier versions.
+ * - 'no-convergence': the descent from both first drawings ended without a verdict (or the certified
+ *   answer's inertia counted fewer negative eigenvalues than constraints, which is refused).
  */
 export type EquilibriumStatus = 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'fold' | 'no-convergence';
 
@@ -39,9 +41,13 @@ export interface Equilibrium {
   curvatures: Float64Array;
   /** Achieved area of cell i + 1 at index i. */
   areas: Float64Array;
-  /** Newton iterations used in all solves together. */
+  /** Newton iterations used in all descents together. */
   iterations: number;
-  /** Area continuation solves used (0 when the direct solve succeeded). */
+  /**
+   * Relaxations begun again: from a second first drawing (relax), or the cold relax after a warm one
+   * (relaxFrom); 0 when the first descent gave the verdict. (The name is that of earlier versions,
+   * which continued in the areas.)
+   */
   continuationSolves: number;
   /** The independent check of this answer (checkEquilibrium). */
   certificate: Certificate;

@@ -4,6 +4,8 @@ import { checkEquilibrium, certificatePasses } from '../../src/solver/certificat
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { CubicMap, circleMap, thetaMap } from '../../src/maps/cubic-map.ts';
 import type { Equilibrium } from '../../src/solver/result.ts';
+import { jacobianInto, problemOf } from '../../src/solver/residual.ts';
+import { symmetricInertia } from '../../src/solver/ldlt.ts';
 
 const TOL = 1e-10;
 
@@ -190,5 +192,90 @@ describe('relax', () => {
       expect(() => relax(thetaMap(), bad)).toThrow(RangeError);
     }
     expect(() => relax(thetaMap(), Float64Array.of(1, 1), { maxIterations: 0 })).toThrow(RangeError);
+  });
+
+  it('relax ends every arrangement with n <= 6 at equal areas certified or with a named failure, winners at the known perimeters', () => {
+    // the issue's robustness requirement: no 'no-convergence' (the previous relaxer left 39% of n <= 7 so);
+    // winners: n = 4, 5, 6 unit cells 11.187802198, 13.558108409, 15.776751153, stated in the relaxer's
+    // brief as computed independently of this project (they agree, from memory, with the best-known
+    // perimeters of "Minimal perimeter for N identical bubbles in two dimensions: calculations and
+    // simulations", Philosophical Magazine 83 (2003))
+    const known: Record<number, number> = { 4: 11.187802198, 5: 13.558108409, 6: 15.776751153 };
+    for (let n = 2; n <= 6; n++) {
+      const areas = new Float64Array(n).fill(1);
+      let best = Infinity;
+      for (const c of enumerateClusters(n)) {
+        const r = relax(c.map, areas);
+        expect(r.status, c.code).not.toBe('no-convergence');
+        if (r.status === 'ok') {
+          expect(certificatePasses(checkEquilibrium(c.map, areas, r), TOL), c.code).toBe(true);
+          best = Math.min(best, r.perimeter);
+        } else if (r.status === 'wall-collapse') expect(r.collapsingWall).not.toBeNull();
+        else if (r.status === 'cell-collapse') expect(r.collapsingCell).not.toBeNull();
+      }
+      if (known[n]) expect(Math.abs(best - known[n])).toBeLessThan(1e-8);
+    }
+  });
+
+  it('relax reports the index and zero modes of the full KKT matrix, unclamped', () => {
+    // reference: the inertia of the full bordered Jacobian (jacobianInto, symmetricInertia); design.md §5:
+    // index = negative eigenvalues - (n area constraints + 3 rigid motions), zero modes = zero eigenvalues
+    let seed = 3;
+    const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647);
+    let checked = 0;
+    for (let n = 3; n <= 5; n++) {
+      for (const c of enumerateClusters(n)) {
+        const areas = Float64Array.from({ length: n }, () => 1 + 4 * random());
+        const r = relax(c.map, areas);
+        if (r.status !== 'ok') continue;
+        const p = problemOf(c.map);
+        const unit = Math.sqrt(areas.reduce((x, y) => x + y, 0) / n);
+        const z = new Float64Array(p.size);
+        for (let i = 0; i < 2 * p.junctions; i++) z[i] = r.coords[i] / unit;
+        z.set(r.bulges, 2 * p.junctions);
+        for (let f = 0; f < n; f++) z[2 * p.junctions + p.walls + f] = r.pressures[f] * unit;
+        const jac = new Float64Array(p.order * p.order);
+        jacobianInto(p, z, jac);
+        const inertia = symmetricInertia(jac, p.order, 1e-8);
+        expect(r.index, c.code).toBe(inertia.negative - (n + 3));
+        expect(r.zeroModes, c.code).toBe(inertia.zero);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(10);
+  });
+
+  it('relax takes the same path at every scale: areas times 1e-3 and 1e3 end alike', () => {
+    // design.md §4: scaling the areas scales the cluster; the relaxer works in units of sqrt(mean area),
+    // so the verdicts must not depend on the scale (common practice, no source)
+    const base = [1, 2, 3, 4];
+    for (const c of [...enumerateClusters(4)].slice(0, 6)) {
+      for (let shift = 0; shift < 4; shift++) {
+        const areas = Float64Array.from(base, (_, i) => base[(i + shift) % 4]);
+        const r = relax(c.map, areas);
+        for (const s of [1e-3, 1e3]) {
+          const q = relax(c.map, Float64Array.from(areas, (a) => a * s));
+          expect(q.status, c.code).toBe(r.status);
+          if (r.status === 'ok') expect(Math.abs(q.perimeter / (Math.sqrt(s) * r.perimeter) - 1)).toBeLessThan(1e-11);
+        }
+      }
+    }
+  });
+
+  it('relax at random areas with ratios up to 1:50 (n = 3..5) never ends without a verdict', () => {
+    // the issue's robustness requirement at unequal areas; every 'ok' answer re-checked by the certificate
+    let seed = 11;
+    const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647);
+    for (let n = 3; n <= 5; n++) {
+      const maps = [...enumerateClusters(n)];
+      for (let t = 0; t < (n === 5 ? 2 : 5); t++) {
+        const areas = Float64Array.from({ length: n }, () => Math.exp(Math.log(50) * random()));
+        for (const c of maps) {
+          const r = relax(c.map, areas);
+          expect(r.status, `${c.code} ${Array.from(areas)}`).not.toBe('no-convergence');
+          if (r.status === 'ok') expect(certificatePasses(checkEquilibrium(c.map, areas, r), TOL)).toBe(true);
+        }
+      }
+    }
   });
 });
