@@ -1,8 +1,9 @@
 // catalogue stage: write a catalogue as JSON text (deterministic bytes) and read one back, checked
 // against catalogues/catalogue.schema.json and its version.
 
-import { Ajv } from 'ajv';
-import schema from '../../catalogues/catalogue.schema.json' with { type: 'json' };
+import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
+import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
 import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue } from './types.ts';
 
@@ -47,8 +48,20 @@ export function writeCatalogue(catalogue: Catalogue): string {
   return lines.filter((l, i) => !(l === '' && i === 6)).join('\n') + '\n';
 }
 
-const ajv = new Ajv({ allErrors: false, strict: false });
-const validate = ajv.compile(schema);
+/** The catalogue schema's file; catalogues/ sits two folders above both src/catalogue and dist/catalogue. */
+export const CATALOGUE_SCHEMA_URL = new URL('../../catalogues/catalogue.schema.json', import.meta.url);
+
+let validator: ValidateFunction | null = null;
+
+/** The compiled schema check, built on first use (ajv is loaded only by verbs that read catalogues). */
+function catalogueValidator(): ValidateFunction {
+  if (validator === null) {
+    const { Ajv } = createRequire(import.meta.url)('ajv') as typeof import('ajv');
+    const schema = JSON.parse(readFileSync(CATALOGUE_SCHEMA_URL, 'utf8')) as object;
+    validator = new Ajv({ allErrors: false, strict: false }).compile(schema);
+  }
+  return validator;
+}
 
 /**
  * Read a catalogue from JSON text.
@@ -69,6 +82,7 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
   if (head.version !== CATALOGUE_VERSION) {
     throw new CatalogueFormatError(`Got v${String(head.version)} catalogue when expected v${CATALOGUE_VERSION}.`);
   }
+  const validate = catalogueValidator();
   if (!validate(data)) {
     const err = validate.errors?.[0];
     const where = err?.instancePath || '/';

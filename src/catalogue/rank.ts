@@ -4,7 +4,6 @@
 // threads when asked) -> total order: perimeter, then code, then assignment -> catalogue.
 
 import { availableParallelism } from 'node:os';
-import { Piscina } from 'piscina';
 import { cellPermutations, enumerateClusters, type Cluster } from '../maps/cluster.ts';
 import { summarizeCluster } from '../maps/describe.ts';
 import { rootedMapCount } from '../maps/count.ts';
@@ -159,10 +158,13 @@ async function runTasks(
       return r;
     });
   }
+  const { Piscina } = await import('piscina');
+  // compiled (dist/): the worker is plain JavaScript; from the sources (tests, development) tsx runs it,
+  // resolved from here so the pool works whatever the current directory is
+  const compiled = !import.meta.url.endsWith('.ts');
   const pool = new Piscina({
-    filename: new URL('./worker.ts', import.meta.url).href,
-    // resolve tsx from here, so the pool works whatever the current directory is
-    execArgv: ['--import', import.meta.resolve('tsx')],
+    filename: new URL(compiled ? './worker.js' : './worker.ts', import.meta.url).href,
+    execArgv: compiled ? [] : ['--import', import.meta.resolve('tsx')],
     minThreads: workers,
     maxThreads: workers,
   });

@@ -12,6 +12,7 @@ import { writeFileAtomic } from './io.ts';
 import { entryDrawing, equilibriumDrawing } from './drawings.ts';
 import { areasForCluster } from './relax.ts';
 import { loadCatalogue } from './show.ts';
+import { cliStreams } from './streams.ts';
 
 /** Parse "1-6" or "3" or "1,4,7" into ranks. */
 export function parseRanks(text: string): number[] {
@@ -30,7 +31,6 @@ export function parseRanks(text: string): number[] {
 export function addDrawCommand(program: Command): void {
   program
     .command('draw')
-    .description('draw an arrangement at its equilibrium, or ranked entries of a catalogue file, as SVG')
     .argument('<what>', 'an id (4.9), a code ("3:...b7a") or a catalogue file (.json)')
     .option('--areas <list>', 'cell areas for an arrangement (default: all 1)', parseAreas)
     .option('--ranks <list>', 'ranks to draw from a catalogue, e.g. 1-6', parseRanks)
@@ -61,9 +61,9 @@ export function addDrawCommand(program: Command): void {
         const areas = areasForCluster(cluster, opts.areas, what);
         const eq = relax(cluster.map, areas);
         svg = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), style);
-        if (eq.status !== 'ok') process.stderr.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
+        if (eq.status !== 'ok') cliStreams().err.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
       }
       if (opts.out) writeFileAtomic(opts.out, svg);
-      else process.stdout.write(svg);
+      else cliStreams().out.write(svg);
     });
 }

@@ -70,7 +70,6 @@ function jsonRow(id: string | null, s: ClusterSummary): string {
 export function addListCommand(program: Command): void {
   program
     .command('list')
-    .description('print every arrangement of n cells (1 <= n <= 10; more with --large)')
     .argument('<cells>', 'number of cells', parseCells)
     .addOption(new Option('--format <format>', 'table, jsonl or graphml').default('table').argParser(oneOf(['table', 'jsonl', 'graphml'] as const, 'Format')))
     .option('--three-connected', 'only arrangements whose map is 3-connected')

@@ -3,12 +3,13 @@
 import { closeSync, fsyncSync, openSync, renameSync, rmSync, writeSync } from 'node:fs';
 import { basename, dirname, join } from 'node:path';
 import { UsageError } from '../errors.ts';
+import { cliStreams } from './streams.ts';
 
 /** A line-oriented output: stdout, or a temporary file renamed into place by close(). */
 export class Output {
   private readonly path: string | null;
   private readonly tmp: string | null;
-  private fd: number;
+  private fd: number; // -1: the run's standard output stream
   private buffer: string[] = [];
   private size = 0;
 
@@ -17,7 +18,7 @@ export class Output {
     this.path = path;
     if (path === null) {
       this.tmp = null;
-      this.fd = 1;
+      this.fd = -1;
       return;
     }
     this.tmp = join(dirname(path), `.${basename(path)}.${process.pid}.tmp`);
@@ -48,6 +49,11 @@ export class Output {
     const text = this.buffer.join('');
     this.buffer = [];
     this.size = 0;
+    if (this.fd === -1) {
+      // through the stream, which queues what the reader has not taken yet (a pipe is never cut short)
+      cliStreams().out.write(text);
+      return;
+    }
     let offset = 0;
     const bytes = Buffer.from(text);
     while (offset < bytes.length) offset += writeSync(this.fd, bytes, offset);

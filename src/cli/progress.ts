@@ -1,6 +1,8 @@
 // cli stage: a progress bar with an estimate of the time left, on stderr only when it is a terminal.
 
-import cliProgress from 'cli-progress';
+import { createRequire } from 'node:module';
+import type cliProgressModule from 'cli-progress';
+import { cliStreams } from './streams.ts';
 
 /** A progress reporter; silent when stderr is not a terminal. */
 export interface Progress {
@@ -12,11 +14,14 @@ export interface Progress {
 
 /** Start a progress bar over `total` units labelled `label`. */
 export function startProgress(label: string, total: number): Progress {
-  if (!process.stderr.isTTY || total <= 0) return { update() {}, stop() {} };
+  const err = cliStreams().err as NodeJS.WriteStream;
+  if (!err.isTTY || total <= 0) return { update() {}, stop() {} };
+  // loaded only for a terminal: a pipe or a test never pays for it
+  const cliProgress = createRequire(import.meta.url)('cli-progress') as typeof cliProgressModule;
   const bar = new cliProgress.SingleBar(
     {
       format: `${label} [{bar}] {percentage}% | {value}/{total} | {duration_formatted} elapsed, {eta_formatted} left`,
-      stream: process.stderr,
+      stream: err,
       hideCursor: true,
       clearOnComplete: true,
       etaBuffer: 200,

@@ -11,6 +11,7 @@ import { catalogueTable } from './table.ts';
 import { entriesSheet } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { InvalidArgumentError } from 'commander';
+import { cliStreams } from './streams.ts';
 
 function positiveSeconds(text: string): number {
   const v = Number(text);
@@ -24,7 +25,6 @@ function positiveSeconds(text: string): number {
 export function addRankCommand(program: Command): void {
   program
     .command('rank')
-    .description('rank every arrangement of the given cell areas by perimeter, with stability and failures')
     .option('--areas <list>', 'cell areas, comma separated, e.g. 1,1,2.5', parseAreas)
     .option('--example <name>', 'a built-in example (tray-pair, tray-trio, tray-mixed, tray-six)')
     .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1), 25)
@@ -59,8 +59,8 @@ export function addRankCommand(program: Command): void {
       if (opts.sheet) {
         const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, 12));
         if (top.length > 0) writeFileAtomic(opts.sheet, entriesSheet(top, `areas ${areas.join(', ')}`));
-        else process.stderr.write('lather: no certified equilibrium to draw; no sheet written\n');
+        else cliStreams().err.write('lather: no certified equilibrium to draw; no sheet written\n');
       }
-      process.stdout.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
+      cliStreams().out.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
     });
 }

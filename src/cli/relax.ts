@@ -13,6 +13,7 @@ import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
 import { writeFileAtomic } from './io.ts';
 import { equilibriumDrawing } from './drawings.ts';
+import { cliStreams } from './streams.ts';
 
 /** The areas for a cluster: the given list (checked against the cell count) or equal areas of 1. */
 export function areasForCluster(cluster: Cluster, given: number[] | undefined, label: string): Float64Array {
@@ -80,7 +81,6 @@ export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, 
 export function addRelaxCommand(program: Command): void {
   program
     .command('relax')
-    .description('relax one arrangement to its least-perimeter equilibrium at the given areas')
     .argument('<arrangement>', 'an id from `lather list` (e.g. 4.9) or a code (e.g. "3:...b7a")')
     .option('--areas <list>', 'cell areas in the arrangement\'s cell order (default: all 1)', parseAreas)
     .option('--json', 'print the whole answer as JSON')
@@ -96,6 +96,6 @@ export function addRelaxCommand(program: Command): void {
         writeFileAtomic(opts.svg, svg);
       }
       const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, eq), null, 2) : relaxSummary(what, cluster, areas, eq).join('\n');
-      process.stdout.write(text + '\n');
+      cliStreams().out.write(text + '\n');
     });
 }

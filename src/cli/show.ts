@@ -7,6 +7,7 @@ import type { Catalogue } from '../catalogue/types.ts';
 import { UsageError } from '../errors.ts';
 import { wholeNumber } from './parse.ts';
 import { catalogueTable } from './table.ts';
+import { cliStreams } from './streams.ts';
 
 /** Read and check a catalogue file. @throws UsageError or CatalogueFormatError. */
 export function loadCatalogue(path: string): Catalogue {
@@ -24,12 +25,11 @@ export function loadCatalogue(path: string): Catalogue {
 export function addShowCommand(program: Command): void {
   program
     .command('show')
-    .description('summarise a catalogue file written by rank --out')
     .argument('<file>', 'catalogue file (.json)')
     .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1), 25)
     .option('--stable-only', 'show only equilibria of index 0')
     .action((file: string, opts) => {
       const catalogue = loadCatalogue(file);
-      process.stdout.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
+      cliStreams().out.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
     });
 }

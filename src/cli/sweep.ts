@@ -12,6 +12,7 @@ import { writeFileAtomic } from './io.ts';
 import { wholeNumber } from './parse.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { pathPlot, pathTable, regionPlot, regionTable } from './sweep-output.ts';
+import { cliStreams } from './streams.ts';
 
 /** Default samples: along a path, per side of a grid, divisions of a triangle's side. */
 const DEFAULT_SAMPLES = { path: 50, grid: 12, triangle: 10 } as const;
@@ -47,7 +48,6 @@ function domainFrom(opts: { vary?: string; shares?: string; samples?: number; lo
 export function addSweepCommand(program: Command): void {
   program
     .command('sweep')
-    .description('which arrangement wins as the areas change: along a path, over a grid or over a triangle of shares')
     .requiredOption('--areas <formulas>', 'cell areas as formulas of the parameters, comma separated, e.g. "1, 1, 1, t"')
     .option('--vary <ranges>', 'one parameter (a path) or two (a grid) with their ranges, e.g. t=0.1:10 or s=0.5:2,t=0.5:2')
     .option('--shares <names=total>', 'three shares with a fixed total, sampled over their triangle, e.g. a,b,c=3')
@@ -93,6 +93,6 @@ export function addSweepCommand(program: Command): void {
       (progress as Progress | null)?.stop();
       if (typeof opts.json === 'string') writeFileAtomic(opts.json, json);
       if (opts.plot) writeFileAtomic(opts.plot, svg());
-      process.stdout.write(opts.json === true ? json : `${lines.join('\n')}\n`);
+      cliStreams().out.write(opts.json === true ? json : `${lines.join('\n')}\n`);
     });
 }

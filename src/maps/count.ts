@@ -7,6 +7,7 @@
 // clusters of 4E/|Aut(M, f)| is (F) a(m) = (n + 1) a(n - 1). A mismatch of one means a missing or
 // duplicated map.
 
+import { UsageError } from '../errors.ts';
 import { type EnumerateOptions, enumerateMaps } from './enumerate.ts';
 
 /** OEIS A000309: rooted bridgeless cubic planar maps with 2m vertices (exact, as a bigint). */
@@ -46,7 +47,7 @@ export interface ArrangementCounts {
 
 /**
  * Count the arrangements of n >= 2 cells (or one shard of them) without building cluster codes.
- * @throws RangeError when cells is not a whole number >= 1.
+ * @throws UsageError when cells is not a whole number >= 1.
  */
 export function countArrangements(cells: number, options: EnumerateOptions = {}): ArrangementCounts {
   const counts: ArrangementCounts = {

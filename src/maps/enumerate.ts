@@ -287,10 +287,10 @@ export function isThreeConnected(map: CubicMap): boolean {
   return true;
 }
 
-/** Check a cell count and shard for the enumerator. @throws RangeError or UsageError. */
+/** Check a cell count and shard for the enumerator. @throws UsageError. */
 function checkArguments(cells: number, options: EnumerateOptions): { index: number; count: number } {
   if (!Number.isSafeInteger(cells) || cells < 1) {
-    throw new RangeError(`Cell count ${cells} is not valid when expected a whole number of at least 1.`);
+    throw new UsageError(`Cell count ${cells} is not valid when expected a whole number of at least 1.`);
   }
   const shard = options.shard ?? { index: 0, count: 1 };
   if (!Number.isSafeInteger(shard.count) || shard.count < 1 || !Number.isSafeInteger(shard.index) || shard.index < 0 || shard.index >= shard.count) {
@@ -302,7 +302,7 @@ function checkArguments(cells: number, options: EnumerateOptions): { index: numb
 /**
  * Every bridgeless cubic plane map with cells + 1 faces, up to isomorphism (reflections included),
  * in a deterministic order. For one cell it yields the circle (no junctions).
- * @throws RangeError when cells is not a whole number >= 1.
+ * @throws UsageError when cells is not a whole number >= 1.
  */
 export function* enumerateMaps(cells: number, options: EnumerateOptions = {}): Generator<EnumeratedMap> {
   const shard = checkArguments(cells, options);

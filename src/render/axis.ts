@@ -1,5 +1,6 @@
 // render stage: plot axes, a value-to-pixel map (linear or logarithmic) with its ticks drawn as SVG.
 
+import { UsageError } from '../errors.ts';
 import type { Tick } from './ticks.ts';
 import { linearTicks, logTicks } from './ticks.ts';
 import { INK } from './palette.ts';
@@ -18,7 +19,7 @@ export interface Axis {
 
 /**
  * An axis from [lo, hi] to [pxLo, pxHi]; logarithmic when `log`, with ticks from ticks.ts.
- * @throws RangeError when the range is not finite, lo > hi, or lo <= 0 on a log axis.
+ * @throws UsageError when the range is not finite, lo > hi, or lo <= 0 on a log axis.
  */
 export function makeAxis(lo: number, hi: number, log: boolean, pxLo: number, pxHi: number, count = 6): Axis {
   const ticks = log ? logTicks(lo, hi) : linearTicks(lo, hi, count);

@@ -1,5 +1,7 @@
 // render stage: how numbers and text are written into SVG; every number is rounded here and only here.
 
+import { UsageError } from '../errors.ts';
+
 /**
  * Write x rounded to `digits` decimals, with no trailing zeros and no negative zero
  * ("1.5", not "1.500"; "0", not "-0"). Same input, same string, on every platform.
@@ -13,11 +15,11 @@ export function fixed(x: number, digits: number): string {
 
 /**
  * Check a digits count for fixed().
- * @throws RangeError when digits is not an integer in 0..15.
+ * @throws UsageError when digits is not an integer in 0..15.
  */
 export function checkDigits(digits: number): number {
   if (!(Number.isInteger(digits) && digits >= 0 && digits <= 15)) {
-    throw new RangeError(`Digits is ${digits} when expected an integer in 0..15.`);
+    throw new UsageError(`Digits is ${digits} when expected an integer in 0..15.`);
   }
   return digits;
 }

@@ -1,5 +1,6 @@
 // render stage: SVG path data with fixed digits; the only place where arc flags are derived from bulges.
 
+import { UsageError } from '../errors.ts';
 import type { PathContext } from './context.ts';
 import { checkDigits, fixed } from './format.ts';
 
@@ -57,7 +58,7 @@ export class SvgPath implements PathContext {
   private readonly digits: number;
   private text = '';
 
-  /** @throws RangeError when digits is not an integer in 0..15. */
+  /** @throws UsageError when digits is not an integer in 0..15. */
   constructor(digits = 3) {
     this.digits = checkDigits(digits);
   }

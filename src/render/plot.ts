@@ -109,10 +109,10 @@ function checkPlot(options: PathPlotOptions): void {
   if (xs.length < 2) throw new UsageError(`Path plot has ${xs.length} samples when expected at least 2.`);
   for (let i = 0; i < xs.length; i++) {
     if (!Number.isFinite(xs[i]) || (i > 0 && !(xs[i] > xs[i - 1]))) {
-      throw new RangeError(`Sample ${i} is at ${xs[i]} when expected finite values increasing strictly.`);
+      throw new UsageError(`Sample ${i} is at ${xs[i]} when expected finite values increasing strictly.`);
     }
   }
-  if (options.logX === true && !(xs[0] > 0)) throw new RangeError(`First sample is at ${xs[0]} when expected a positive value on a log axis.`);
+  if (options.logX === true && !(xs[0] > 0)) throw new UsageError(`First sample is at ${xs[0]} when expected a positive value on a log axis.`);
   if (series.length === 0) throw new UsageError('Path plot has 0 series when expected at least 1.');
   const keys = new Set<string>();
   for (const s of series) {
@@ -122,13 +122,13 @@ function checkPlot(options: PathPlotOptions): void {
       throw new UsageError(`Series ${s.key} has ${s.perimeters.length} perimeters when expected ${xs.length} (1 per sample).`);
     }
     for (const p of s.perimeters) {
-      if (p !== null && !(p > 0 && Number.isFinite(p))) throw new RangeError(`Series ${s.key} has perimeter ${p} when expected a positive number or null.`);
+      if (p !== null && !(p > 0 && Number.isFinite(p))) throw new UsageError(`Series ${s.key} has perimeter ${p} when expected a positive number or null.`);
     }
     if (s.drawing !== undefined) checkDrawing(s.drawing);
   }
   for (const band of options.bands ?? []) {
     if (!keys.has(band.key)) throw new UsageError(`Band key ${band.key} names no series when expected one of the series keys.`);
-    if (!(band.from <= band.to)) throw new RangeError(`Band of ${band.key} runs from ${band.from} to ${band.to} when expected from <= to.`);
+    if (!(band.from <= band.to)) throw new UsageError(`Band of ${band.key} runs from ${band.from} to ${band.to} when expected from <= to.`);
   }
 }
 
@@ -140,7 +140,7 @@ function checkPlot(options: PathPlotOptions): void {
  * (when the band is at least 18 px wide), and a legend with every series' line, marker and drawing;
  * drawings are filled with a tint of their series' line colour, so drawing, band and line match.
  * Same input, same bytes.
- * @throws UsageError or RangeError when the input is inconsistent (see the option docs).
+ * @throws UsageError when the input is inconsistent (see the option docs).
  */
 export function renderPathPlot(options: PathPlotOptions): string {
   checkPlot(options);

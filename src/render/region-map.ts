@@ -97,7 +97,7 @@ function checkSamples(values: ArrayLike<number>, log: boolean, name: string): vo
   if (values.length < 1) throw new UsageError(`Region map has 0 ${name} samples when expected at least 1.`);
   for (let i = 0; i < values.length; i++) {
     if (!Number.isFinite(values[i]) || (i > 0 && !(values[i] > values[i - 1])) || (log && !(values[i] > 0))) {
-      throw new RangeError(`Sample ${i} of ${name} is ${values[i]} when expected finite values increasing strictly${log ? ', positive' : ''}.`);
+      throw new UsageError(`Sample ${i} of ${name} is ${values[i]} when expected finite values increasing strictly${log ? ', positive' : ''}.`);
     }
   }
 }
@@ -109,7 +109,7 @@ function checkSamples(values: ArrayLike<number>, log: boolean, name: string): vo
  * reads without colour), axes with ticks for a rectangle grid or share ticks and names for a
  * triangle, and a legend of colours, numbers, names and small drawings filled with their region's
  * colour. Same input, same bytes.
- * @throws UsageError or RangeError when the input is inconsistent (see the option docs).
+ * @throws UsageError when the input is inconsistent (see the option docs).
  */
 export function renderRegionMap(options: RegionMapOptions): string {
   const { grid, arrangements, winners } = options;

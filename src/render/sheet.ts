@@ -70,17 +70,17 @@ function captionLines(item: SheetItem, digits: number): string[] {
  * Draw several clusters on one sheet, in reading order, each in its own tile with a caption of one
  * or two lines (e.g. "#1  3:abc" and "P = 10.38"). Used for the top K drawings of a ranking.
  * Same input, same bytes.
- * @throws UsageError when there are no items or an item's drawing is malformed; RangeError for an
+ * @throws UsageError when there are no items or an item's drawing is malformed; UsageError for an
  * option out of range.
  */
 export function renderContactSheet(items: readonly SheetItem[], options: ContactSheetOptions = {}): string {
   if (items.length === 0) throw new UsageError('Contact sheet has 0 items when expected at least 1.');
   for (const item of items) checkDrawing(item.drawing);
   const columns = options.columns ?? Math.min(items.length, 4);
-  if (!(Number.isInteger(columns) && columns >= 1)) throw new RangeError(`Columns is ${columns} when expected a positive integer.`);
+  if (!(Number.isInteger(columns) && columns >= 1)) throw new UsageError(`Columns is ${columns} when expected a positive integer.`);
   const tilePx = options.tilePx ?? 200;
   if (!(tilePx > 2 * TILE_PAD && Number.isFinite(tilePx))) {
-    throw new RangeError(`Tile size is ${tilePx} px when expected a number above ${2 * TILE_PAD}.`);
+    throw new UsageError(`Tile size is ${tilePx} px when expected a number above ${2 * TILE_PAD}.`);
   }
   const gap = options.gapPx ?? 12;
   const captionPx = options.captionSizePx ?? 12;

@@ -1,5 +1,6 @@
 // render stage: one cluster as a standalone SVG document, its view box fitted to the walls' exact extent.
 
+import { UsageError } from '../errors.ts';
 import type { ClusterDrawing } from './types.ts';
 import { checkDrawing } from './types.ts';
 import type { ClusterStyle } from './cluster-group.ts';
@@ -31,14 +32,14 @@ export interface ClusterSvgOptions extends ClusterStyle {
  * (arc bounding boxes, not just the junctions) plus margins and headings, centred on the extent's
  * centre; walls keep their pixel width when the picture is zoomed (non-scaling stroke).
  * Same input, same bytes.
- * @throws UsageError or RangeError when the drawing is malformed (see checkDrawing) or an option is out of range.
+ * @throws UsageError when the drawing is malformed (see checkDrawing) or an option is out of range.
  */
 export function renderClusterSvg(drawing: ClusterDrawing, options: ClusterSvgOptions = {}): string {
   checkDrawing(drawing);
   const sizePx = options.sizePx ?? 360;
   const marginPx = options.marginPx ?? 16;
-  if (!(sizePx > 0 && Number.isFinite(sizePx))) throw new RangeError(`Size is ${sizePx} px when expected a positive number.`);
-  if (!(marginPx >= 0 && Number.isFinite(marginPx))) throw new RangeError(`Margin is ${marginPx} px when expected a non-negative number.`);
+  if (!(sizePx > 0 && Number.isFinite(sizePx))) throw new UsageError(`Size is ${sizePx} px when expected a positive number.`);
+  if (!(marginPx >= 0 && Number.isFinite(marginPx))) throw new UsageError(`Margin is ${marginPx} px when expected a non-negative number.`);
   const digits = checkDigits(options.digits ?? 2);
   const n = (v: number): string => fixed(v, digits);
   const box = drawingBounds(drawing);

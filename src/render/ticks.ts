@@ -1,5 +1,6 @@
 // render stage: axis ticks at nice numbers (1, 2, 5 x 10^k) on linear and logarithmic axes.
 
+import { UsageError } from '../errors.ts';
 import { formatValue } from './format.ts';
 
 /** One tick: its value, its label (empty for an unlabelled minor tick) and whether it is major. */
@@ -17,11 +18,11 @@ const END_SLACK = 1e-9;
  * the mantissa r of the raw step picks 1 below sqrt 2, 2 below sqrt 10, 5 below sqrt 50, else 10,
  * the geometric midpoints (common practice for graph labels, no source). Returned with its power of ten, so ticks can be built
  * as exact decimals.
- * @throws RangeError when span or count is not positive and finite.
+ * @throws UsageError when span or count is not positive and finite.
  */
 export function niceStep(span: number, count: number): { step: number; mantissa: number; exponent: number } {
   if (!(span > 0 && Number.isFinite(span) && count > 0 && Number.isFinite(count))) {
-    throw new RangeError(`Tick span ${span} and count ${count} when expected positive finite numbers.`);
+    throw new UsageError(`Tick span ${span} and count ${count} when expected positive finite numbers.`);
   }
   const raw = span / count;
   let exponent = Math.floor(Math.log10(raw));
@@ -49,11 +50,11 @@ function linearLabel(value: number): string {
 /**
  * About `count` labelled ticks at multiples of a nice step inside [lo, hi] (ends included within a
  * relative 1e-9 of the step). A degenerate range lo = hi is widened to lo -/+ (|lo| / 2 or 1).
- * @throws RangeError when lo or hi is not finite or lo > hi.
+ * @throws UsageError when lo or hi is not finite or lo > hi.
  */
 export function linearTicks(lo: number, hi: number, count = 5): Tick[] {
   if (!(Number.isFinite(lo) && Number.isFinite(hi) && lo <= hi)) {
-    throw new RangeError(`Axis range [${lo}, ${hi}] when expected finite numbers with lo <= hi.`);
+    throw new UsageError(`Axis range [${lo}, ${hi}] when expected finite numbers with lo <= hi.`);
   }
   if (lo === hi) {
     const pad = lo === 0 ? 1 : Math.abs(lo) / 2;
@@ -94,11 +95,11 @@ export function niceDomain(lo: number, hi: number, count = 5): [number, number] 
  *   the minor ticks 2..9 are added;
  * - when that leaves fewer than two labelled ticks (a range inside one decade such as [1.2, 1.8]),
  *   the linear nice ticks of [lo, hi] are used instead.
- * @throws RangeError when lo is not positive, hi is not finite or lo > hi.
+ * @throws UsageError when lo is not positive, hi is not finite or lo > hi.
  */
 export function logTicks(lo: number, hi: number): Tick[] {
   if (!(lo > 0 && Number.isFinite(hi) && lo <= hi)) {
-    throw new RangeError(`Log axis range [${lo}, ${hi}] when expected 0 < lo <= hi, finite.`);
+    throw new UsageError(`Log axis range [${lo}, ${hi}] when expected 0 < lo <= hi, finite.`);
   }
   const decades = Math.log10(hi / lo);
   const k0 = Math.floor(Math.log10(lo)) - 1;

@@ -40,7 +40,7 @@ export function cellCountOf(drawing: ClusterDrawing): number {
 /**
  * Check the array lengths and values of a drawing once, before any drawing work.
  * @throws UsageError when an array has the wrong length for the map.
- * @throws RangeError when a coordinate is not finite, a bulge is outside (-pi, pi) or an area is
+ * @throws UsageError when a coordinate is not finite, a bulge is outside (-pi, pi) or an area is
  * not positive and finite.
  */
 export function checkDrawing(drawing: ClusterDrawing): void {
@@ -61,20 +61,20 @@ export function checkDrawing(drawing: ClusterDrawing): void {
     throw new UsageError(`Drawing has ${pressures.length} pressures when expected ${n} (1 per cell).`);
   }
   for (let i = 0; i < coords.length; i++) {
-    if (!Number.isFinite(coords[i])) throw new RangeError(`Coordinate ${i} is ${coords[i]} when expected a finite number.`);
+    if (!Number.isFinite(coords[i])) throw new UsageError(`Coordinate ${i} is ${coords[i]} when expected a finite number.`);
   }
   for (let k = 0; k < walls; k++) {
     const t = bulges[k];
-    if (!(t > -Math.PI && t < Math.PI)) throw new RangeError(`Bulge of wall ${k} is ${t} when expected a number in (-pi, pi).`);
+    if (!(t > -Math.PI && t < Math.PI)) throw new UsageError(`Bulge of wall ${k} is ${t} when expected a number in (-pi, pi).`);
   }
   for (let i = 0; i < n; i++) {
     const a = areas[i];
-    if (!(a > 0 && Number.isFinite(a))) throw new RangeError(`Area of cell ${i + 1} is ${a} when expected a positive finite number.`);
+    if (!(a > 0 && Number.isFinite(a))) throw new UsageError(`Area of cell ${i + 1} is ${a} when expected a positive finite number.`);
   }
   if (pressures !== undefined) {
     for (let i = 0; i < n; i++) {
       if (!Number.isFinite(pressures[i])) {
-        throw new RangeError(`Pressure of cell ${i + 1} is ${pressures[i]} when expected a finite number.`);
+        throw new UsageError(`Pressure of cell ${i + 1} is ${pressures[i]} when expected a finite number.`);
       }
     }
   }

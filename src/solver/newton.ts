@@ -13,6 +13,7 @@
 //   5. classify and certify with the independent checkEquilibrium; the inertia of the step's matrix at
 //      the answer gives the stability index and the zero modes.
 
+import { UsageError } from '../errors.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { embedClusterInto } from '../arcs/embed.ts';
 import { drawByInsertionInto } from '../arcs/insertion.ts';
@@ -128,11 +129,11 @@ function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
 function checkInput(map: CubicMap, areas: Float64Array): void {
   const cells = map.faceCount - 1;
   if (areas.length !== cells) {
-    throw new RangeError(`Got ${areas.length} areas when expected ${cells}, one per cell.`);
+    throw new UsageError(`Got ${areas.length} areas when expected ${cells}, one per cell.`);
   }
   for (let i = 0; i < cells; i++) {
     if (!(areas[i] > 0) || !Number.isFinite(areas[i])) {
-      throw new RangeError(`Area of cell ${i + 1} is ${areas[i]} when expected a positive finite number.`);
+      throw new UsageError(`Area of cell ${i + 1} is ${areas[i]} when expected a positive finite number.`);
     }
   }
 }
@@ -150,7 +151,7 @@ function normaliseTargets(problem: ClusterProblem, ws: Workspace, areas: Float64
  * area areas[i], from a first drawing of the arrangement. Never throws for a numerical failure: the
  * status names it. An 'ok' answer is a stable equilibrium in its arrangement (index 0) unless the
  * drawing it started from was one already.
- * @throws RangeError when the number of areas is not n or an area is not positive and finite, or an
+ * @throws UsageError when the number of areas is not n or an area is not positive and finite, or an
  *   option is out of range.
  */
 export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOptions): Equilibrium {
@@ -223,7 +224,7 @@ function secondStart(
  * units, its pressures as the first pressure estimates; falls back to a cold relax() when that does
  * not end at a certified equilibrium (and returns the warm answer if the cold one is not certified
  * either).
- * @throws RangeError as relax() does, or when start's arrays do not fit the map.
+ * @throws UsageError as relax() does, or when start's arrays do not fit the map.
  */
 export function relaxFrom(
   map: CubicMap, areas: Float64Array, start: EquilibriumStart, options?: NewtonOptions,
@@ -234,7 +235,7 @@ export function relaxFrom(
   const problem = problemOf(map);
   const { junctions, walls, cells } = problem;
   if (start.coords.length !== 2 * junctions || start.bulges.length !== walls || start.pressures.length !== cells) {
-    throw new RangeError(
+    throw new UsageError(
       `Start has ${start.coords.length} coordinates, ${start.bulges.length} bulges and ${start.pressures.length} ` +
         `pressures when expected ${2 * junctions}, ${walls} and ${cells}.`,
     );

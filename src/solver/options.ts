@@ -1,5 +1,7 @@
 // solver stage: the relaxer's options with their defaults, resolved and checked once per call.
 
+import { UsageError } from '../errors.ts';
+
 /** Options of relax() and relaxFrom(). Lengths are in units of sqrt(mean target cell area). */
 export interface NewtonOptions {
   /**
@@ -59,7 +61,7 @@ const DEFAULTS: ResolvedNewtonOptions = {
 
 /**
  * Fill in defaults and check ranges.
- * @throws RangeError when an option is not a finite number in its range.
+ * @throws UsageError when an option is not a finite number in its range.
  */
 export function resolveOptions(options: NewtonOptions = {}): ResolvedNewtonOptions {
   const out = { ...DEFAULTS };
@@ -69,7 +71,7 @@ export function resolveOptions(options: NewtonOptions = {}): ResolvedNewtonOptio
     const integer = key === 'maxIterations';
     if (typeof value !== 'number' || !Number.isFinite(value) || !(value > 0) || (integer && !Number.isInteger(value))) {
       const want = integer ? 'a positive integer' : 'a positive finite number';
-      throw new RangeError(`Option ${key} is ${String(value)} when expected ${want}.`);
+      throw new UsageError(`Option ${key} is ${String(value)} when expected ${want}.`);
     }
     out[key] = value;
   }

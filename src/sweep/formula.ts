@@ -6,7 +6,17 @@
 // conditionals, property access, unknown names) is refused, so evaluating a formula can only compute
 // a number from the parameters.
 
-import { type EvalFunction, type MathNode, derivative, parse } from 'mathjs';
+import { createRequire } from 'node:module';
+import type { EvalFunction, MathNode } from 'mathjs';
+
+type MathJs = typeof import('mathjs');
+let mathjs: MathJs | null = null;
+
+/** mathjs, loaded on the first formula (it takes most of a second to load; only formulas need it). */
+function math(): MathJs {
+  mathjs ??= createRequire(import.meta.url)('mathjs') as MathJs;
+  return mathjs;
+}
 import { FormulaError } from '../errors.ts';
 
 /** The real functions a formula may call. */
@@ -116,7 +126,7 @@ function checkNode(root: MathNode, label: string, parameters: readonly string[])
 export function parseFormula(source: string, parameters: readonly string[], label = `Formula "${source}"`): AreaFormula {
   let root: MathNode;
   try {
-    root = parse(source);
+    root = math().parse(source);
   } catch (error) {
     const reason = (error as Error).message.replace(/\s+/g, ' ').replace(/\.$/, '');
     throw new FormulaError(`${label} does not parse (${reason}) when expected an expression such as 1 + t^2.`);
@@ -126,10 +136,10 @@ export function parseFormula(source: string, parameters: readonly string[], labe
   const slopes = new Map<string, EvalFunction | null>();
   for (const p of parameters) {
     let d: EvalFunction | null = null;
-    if (!uses.includes(p)) d = parse('0').compile();
+    if (!uses.includes(p)) d = math().parse('0').compile();
     else {
       try {
-        d = derivative(root, p).compile();
+        d = math().derivative(root, p).compile();
       } catch {
         d = null; // e.g. min/max: no symbolic derivative; a central difference below
       }

@@ -38,7 +38,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   const tolerance = options.tolerance ?? 1e-6;
   if (!(Number.isInteger(competitorCount) && competitorCount >= 1)) throw new UsageError(`Competitors is ${competitorCount} when expected a whole number of at least 1.`);
   if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
-  if (!(tolerance > 0 && Number.isFinite(tolerance))) throw new RangeError(`Tolerance is ${tolerance} when expected a positive finite number.`);
+  if (!(tolerance > 0 && Number.isFinite(tolerance))) throw new UsageError(`Tolerance is ${tolerance} when expected a positive finite number.`);
   const newton = options.newton;
   const set = sweepCandidates(formulas, options.filter);
   const { candidates } = set;

@@ -83,7 +83,7 @@ export interface ProbeResult {
  */
 export function probe(ctx: PathContext, c: number, p: number, list: KnownState[]): ProbeResult {
   const from = nearest(list, p);
-  if (from === null) throw new RangeError(`Probe of candidate ${c} has no known state when expected at least one.`);
+  if (from === null) throw new Error(`Probe of candidate ${c} has no known state when expected at least one.`);
   const areas = areasAt(ctx, c, p);
   const step = trackStep(ctx.set.candidates[c].cluster.map, areas, from.state, ctx.probeOptions, ctx.counts, 'probe');
   if (!step.continued) return { known: null, equilibrium: step.equilibrium };

@@ -18,12 +18,12 @@ import type { Placed, Region, RegionSweep, SweepOptions } from './types.ts';
 
 /**
  * The neighbour lists of a domain's samples, in its sample order.
- * @throws RangeError when the grid size or the divisions are not positive integers.
+ * @throws UsageError when the grid size or the divisions are not positive integers.
  */
 export function sampleNeighbours(domain: GridDomain | TriangleDomain): number[][] {
   if (domain.kind === 'grid') {
     const s = domain.samples;
-    if (!(Number.isInteger(s) && s >= 1)) throw new RangeError(`Grid has ${s} samples per side when expected a positive whole number.`);
+    if (!(Number.isInteger(s) && s >= 1)) throw new UsageError(`Grid has ${s} samples per side when expected a positive whole number.`);
     const out: number[][] = [];
     for (let j = 0; j < s; j++) {
       for (let i = 0; i < s; i++) {
@@ -40,7 +40,7 @@ export function sampleNeighbours(domain: GridDomain | TriangleDomain): number[][
   // triangle order (render/region-map.ts): row j holds U(0,j), D(0,j), U(1,j), ..., U(m-1-j, j);
   // D(i,j) shares its edges with U(i,j), U(i+1,j) and U(i,j+1)
   const m = domain.divisions;
-  if (!(Number.isInteger(m) && m >= 1)) throw new RangeError(`Divisions is ${m} when expected a positive whole number.`);
+  if (!(Number.isInteger(m) && m >= 1)) throw new UsageError(`Divisions is ${m} when expected a positive whole number.`);
   const up = new Map<string, number>();
   const downs: [number, number, number][] = [];
   let k = 0;

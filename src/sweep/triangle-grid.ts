@@ -1,10 +1,12 @@
 // sweep stage: the triangular (barycentric) sample grid shared by the sweep and its region map.
 
+import { UsageError } from '../errors.ts';
+
 /**
  * Barycentric weights (w0, w1, w2) of the centroid of every small triangle of a triangle grid with
  * `divisions` per side, in row order (the small triangles of each row, upward then downward): 3 numbers per sample, divisions^2 samples.
  * The sweep samples the areas there, so its winners line up with renderRegionMap.
- * @throws RangeError when divisions is not a positive integer.
+ * @throws UsageError when divisions is not a positive integer.
  */
 export function triangleSamples(divisions: number): Float64Array {
   const m = checkDivisions(divisions);
@@ -26,7 +28,7 @@ export function triangleSamples(divisions: number): Float64Array {
 }
 
 export function checkDivisions(divisions: number): number {
-  if (!(Number.isInteger(divisions) && divisions >= 1)) throw new RangeError(`Divisions is ${divisions} when expected a positive integer.`);
+  if (!(Number.isInteger(divisions) && divisions >= 1)) throw new UsageError(`Divisions is ${divisions} when expected a positive integer.`);
   return divisions;
 }
 

@@ -2,27 +2,8 @@
 import { existsSync, mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { describe, expect, it, vi } from 'vitest';
-import { main } from '../../src/cli/main.ts';
+import { describe, expect, it } from 'vitest';
 import { lather } from './helpers.ts';
-
-/** Run `lather ...args` in this process (no start-up cost), capturing its output and exit status. */
-async function latherHere(args: string[]): Promise<{ stdout: string; stderr: string; status: number }> {
-  let stdout = '';
-  let stderr = '';
-  const out = vi.spyOn(process.stdout, 'write').mockImplementation((chunk) => ((stdout += String(chunk)), true));
-  const err = vi.spyOn(process.stderr, 'write').mockImplementation((chunk) => ((stderr += String(chunk)), true));
-  process.exitCode = 0;
-  try {
-    await main(['node', 'lather', ...args]);
-  } finally {
-    out.mockRestore();
-    err.mockRestore();
-  }
-  const status = Number(process.exitCode ?? 0);
-  process.exitCode = 0;
-  return { stdout, stderr, status };
-}
 
 const dir = mkdtempSync(join(tmpdir(), 'lather-sweep-'));
 
@@ -40,7 +21,7 @@ describe('lather sweep', () => {
       [['--areas', '1, t'], /neither --vary nor --shares/],
     ];
     for (const [args, message] of cases) {
-      const r = await latherHere(['sweep', ...args, '--json', out]);
+      const r = await lather(['sweep', ...args, '--json', out]);
       expect(r.status, args.join(' ')).toBe(2);
       const lines = r.stderr.trim().split('\n');
       expect(lines, args.join(' ')).toHaveLength(1);
@@ -54,11 +35,11 @@ describe('lather sweep', () => {
   it('lather sweep of three cells prints one interval, no transition, and byte-identical JSON twice', async () => {
     // "Proof of the planar triple bubble conjecture", J. reine angew. Math. 567 (2004): one winner throughout
     const args = ['sweep', '--areas', '1, 2, t', '--vary', 't=0.5:4', '--samples', '6', '--log'];
-    const r = lather([...args, '--json', join(dir, 'a.json'), '--plot', join(dir, 'a.svg')]);
+    const r = await lather([...args, '--json', join(dir, 'a.json'), '--plot', join(dir, 'a.svg')]);
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/transitions: none/);
     expect(r.stdout).toMatch(/winner by interval/);
-    await latherHere([...args, '--json', join(dir, 'b.json')]);
+    await lather([...args, '--json', join(dir, 'b.json')]);
     const a = readFileSync(join(dir, 'a.json'), 'utf8');
     expect(readFileSync(join(dir, 'b.json'), 'utf8')).toBe(a);
     const doc = JSON.parse(a);
@@ -74,7 +55,7 @@ describe('lather sweep', () => {
   }, 30000);
 
   it('lather sweep --shares draws a region map and prints the regions', async () => {
-    const r = await latherHere(['sweep', '--areas', 'a, b, c', '--shares', 'a,b,c=3', '--samples', '3', '--plot', join(dir, 'r.svg')]);
+    const r = await lather(['sweep', '--areas', 'a, b, c', '--shares', 'a,b,c=3', '--samples', '3', '--plot', join(dir, 'r.svg')]);
     expect(r.status).toBe(0);
     expect(r.stdout).toMatch(/regions \(connected samples with one winner\)/);
     expect(r.stdout).toMatch(/\n\s+1\s+9\s+3\.3\s/);
@@ -82,7 +63,7 @@ describe('lather sweep', () => {
   }, 30000);
 
   it('lather sweep --json without a file prints the JSON document instead of the table', async () => {
-    const r = await latherHere(['sweep', '--areas', '1, t', '--vary', 't=1:2', '--samples', '3', '--json']);
+    const r = await lather(['sweep', '--areas', '1, t', '--vary', 't=1:2', '--samples', '3', '--json']);
     expect(r.status).toBe(0);
     const doc = JSON.parse(r.stdout);
     expect(doc.query.areas).toEqual(['1', 't']);

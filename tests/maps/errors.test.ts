@@ -1,6 +1,6 @@
 // Bad codes and non-admissible maps are refused with MapError (tested by class, not by message).
 import { describe, expect, it } from 'vitest';
-import { MapError } from '../../src/errors.ts';
+import { MapError, UsageError } from '../../src/errors.ts';
 import { clusterFromCode } from '../../src/maps/cluster.ts';
 import { CubicMap } from '../../src/maps/cubic-map.ts';
 import { enumerateMaps } from '../../src/maps/enumerate.ts';
@@ -36,7 +36,7 @@ describe('CubicMap', () => {
 
 describe('enumerateMaps', () => {
   it('enumerateMaps refuses a cell count that is not a whole number >= 1', () => {
-    expect(() => [...enumerateMaps(0)]).toThrow(RangeError);
-    expect(() => [...enumerateMaps(2.5)]).toThrow(RangeError);
+    expect(() => [...enumerateMaps(0)]).toThrow(UsageError);
+    expect(() => [...enumerateMaps(2.5)]).toThrow(UsageError);
   });
 });

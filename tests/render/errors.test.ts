@@ -16,13 +16,13 @@ describe('checkDrawing', () => {
     expect(() => checkDrawing({ ...drawing, pressures: new Float64Array(1) })).toThrow(UsageError);
   });
 
-  it('checkDrawing refuses non-finite coordinates, bulges outside (-pi, pi) and non-positive areas with a RangeError', () => {
-    expect(() => checkDrawing({ ...drawing, coords: Float64Array.of(0, Number.NaN, 0, -1) })).toThrow(RangeError);
-    expect(() => checkDrawing({ ...drawing, bulges: Float64Array.of(Math.PI, 0, 0) })).toThrow(RangeError);
-    expect(() => checkDrawing({ ...drawing, bulges: Float64Array.of(-4, 0, 0) })).toThrow(RangeError);
-    expect(() => checkDrawing({ ...drawing, areas: Float64Array.of(1, 0) })).toThrow(RangeError);
-    expect(() => checkDrawing({ ...drawing, areas: Float64Array.of(1, Number.POSITIVE_INFINITY) })).toThrow(RangeError);
-    expect(() => checkDrawing({ ...drawing, pressures: Float64Array.of(1, Number.NaN) })).toThrow(RangeError);
+  it('checkDrawing refuses non-finite coordinates, bulges outside (-pi, pi) and non-positive areas with a UsageError', () => {
+    expect(() => checkDrawing({ ...drawing, coords: Float64Array.of(0, Number.NaN, 0, -1) })).toThrow(UsageError);
+    expect(() => checkDrawing({ ...drawing, bulges: Float64Array.of(Math.PI, 0, 0) })).toThrow(UsageError);
+    expect(() => checkDrawing({ ...drawing, bulges: Float64Array.of(-4, 0, 0) })).toThrow(UsageError);
+    expect(() => checkDrawing({ ...drawing, areas: Float64Array.of(1, 0) })).toThrow(UsageError);
+    expect(() => checkDrawing({ ...drawing, areas: Float64Array.of(1, Number.POSITIVE_INFINITY) })).toThrow(UsageError);
+    expect(() => checkDrawing({ ...drawing, pressures: Float64Array.of(1, Number.NaN) })).toThrow(UsageError);
   });
 
   it('checkDrawing messages say what was found and what was expected, on one line ending with a period', () => {
@@ -34,8 +34,8 @@ describe('renderClusterSvg', () => {
   it('renderClusterSvg checks the drawing and its options before drawing', () => {
     const { drawing } = doubleBubble(0);
     expect(() => renderClusterSvg({ ...drawing, areas: new Float64Array(1) })).toThrow(UsageError);
-    expect(() => renderClusterSvg(drawing, { sizePx: 0 })).toThrow(RangeError);
-    expect(() => renderClusterSvg(drawing, { marginPx: -1 })).toThrow(RangeError);
-    expect(() => renderClusterSvg(drawing, { digits: 20 })).toThrow(RangeError);
+    expect(() => renderClusterSvg(drawing, { sizePx: 0 })).toThrow(UsageError);
+    expect(() => renderClusterSvg(drawing, { marginPx: -1 })).toThrow(UsageError);
+    expect(() => renderClusterSvg(drawing, { digits: 20 })).toThrow(UsageError);
   });
 });

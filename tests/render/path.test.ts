@@ -1,5 +1,6 @@
 // render tests: SVG path data, arc flags and the straight-wall degenerate case.
 
+import { UsageError } from '../../src/errors.ts';
 import { describe, expect, it } from 'vitest';
 import { SvgPath, ZERO_BULGE, arcFlags, circlePath, wallTo } from '../../src/render/path.ts';
 import { fixed } from '../../src/render/format.ts';
@@ -119,10 +120,10 @@ describe('SvgPath', () => {
     expect(fixed(123.45678, 0)).toBe('123');
   });
 
-  it('new SvgPath(digits) refuses digits outside 0..15 with a RangeError', () => {
-    expect(() => new SvgPath(-1)).toThrow(RangeError);
-    expect(() => new SvgPath(2.5)).toThrow(RangeError);
-    expect(() => new SvgPath(16)).toThrow(RangeError);
+  it('new SvgPath(digits) refuses digits outside 0..15 with a UsageError', () => {
+    expect(() => new SvgPath(-1)).toThrow(UsageError);
+    expect(() => new SvgPath(2.5)).toThrow(UsageError);
+    expect(() => new SvgPath(16)).toThrow(UsageError);
   });
 
   it('circlePath writes a full circle as two half arcs through the opposite point', () => {
