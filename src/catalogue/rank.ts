@@ -4,6 +4,7 @@
 // threads when asked) -> total order: perimeter, then code, then assignment -> catalogue.
 
 import { availableParallelism } from 'node:os';
+import { eventLoopTurns } from '../event-loop.ts';
 import { cellPermutations, enumerateClusters, type Cluster } from '../maps/cluster.ts';
 import { summarizeCluster } from '../maps/describe.ts';
 import { rootedMapCount } from '../maps/count.ts';
@@ -23,7 +24,10 @@ export const RANK_LIMIT = 9;
 export interface RankOptions {
   /** Which arrangements to consider. @default {} (all) */
   filter?: ArrangementFilter;
-  /** Seconds of work allowed before the ranking switches from exhaustive to search. @default 60 */
+  /**
+   * Work allowed before the ranking switches from exhaustive to search, in seconds on one core of the
+   * reference machine (candidates times secondsPerCandidate): it depends on the query alone. @default 60
+   */
   budgetSeconds?: number;
   /** Worker threads (1 = run in this thread). @default 1 */
   workers?: number;
@@ -104,7 +108,9 @@ export async function rankAreas(areas: readonly number[], options: RankOptions =
     planned.push({ cluster, id: `${n}.${enumerated}`, sides: summary.sides, candidates });
   }
   const candidates = planned.reduce((p, q) => p + q.candidates, 0);
-  const affordable = Math.floor((budgetSeconds * workers) / secondsPerCandidate(n));
+  // the budget is work on one core, so the choice between exhaustive and search depends on the query alone
+  // (never on the number of workers or the speed of this machine): same query, same catalogue
+  const affordable = Math.floor(budgetSeconds / secondsPerCandidate(n));
   const fits = candidates <= affordable;
   const cap = fits ? Infinity : Math.max(1, Math.floor(affordable / Math.max(1, planned.length)));
 
@@ -152,11 +158,15 @@ async function runTasks(
     onProgress?.(done, total);
   };
   if (workers === 1 || total < 64) {
-    return tasks.map((t) => {
+    const turn = eventLoopTurns();
+    const out: CandidateResult[][] = [];
+    for (const t of tasks) {
       const r = evaluateCluster(t);
       report(r);
-      return r;
-    });
+      out.push(r);
+      await turn(); // signals and progress are heard during a long ranking in this thread
+    }
+    return out;
   }
   const { Piscina } = await import('piscina');
   // compiled (dist/): the worker is plain JavaScript; from the sources (tests, development) tsx runs it,

@@ -8,7 +8,7 @@ import { renderClusterSvg } from '../render/svg.ts';
 import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
-import { writeFileAtomic } from './io.ts';
+import { withRunFiles, writeOut } from './output.ts';
 import { entryDrawing, equilibriumDrawing } from './drawings.ts';
 import { areasForCluster } from './relax.ts';
 import { loadCatalogue } from './show.ts';
@@ -37,33 +37,41 @@ export function addDrawCommand(program: Command): void {
     .option('--pressures', 'show pressures in the cell labels')
     .option('--junctions', 'mark junctions')
     .option('--out <file.svg>', 'write the SVG to a file (default: standard output)')
-    .action((what: string, opts) => {
+    .action(async (what: string, opts) => {
       const style = { pressures: opts.pressures, junctions: opts.junctions };
-      let svg: string;
-      if (what.endsWith('.json') || (existsSync(what) && !/^[0-9]+(\.[0-9]+|:.*)$/.test(what))) {
-        const catalogue = loadCatalogue(what);
-        const ranks: number[] = opts.ranks ?? [1];
-        const items: SheetItem[] = [];
-        for (const r of ranks) {
-          const entry = catalogue.entries.find((e) => e.rank === r);
-          if (entry === undefined) {
-            const most = catalogue.entries.filter((e) => e.rank !== null).length;
-            throw new UsageError(`Rank ${r} is not in ${what} when expected 1 to ${most}.`);
-          }
-          items.push({ drawing: entryDrawing(entry)!, rank: r, id: entry.id, perimeter: entry.perimeter ?? undefined, note: `index ${entry.index}` });
-        }
-        svg = items.length === 1 && opts.ranks === undefined
-          ? renderClusterSvg({ ...items[0].drawing, caption: `#1  perimeter ${items[0].perimeter?.toPrecision(10)}` }, style)
-          : renderContactSheet(items, { ...style, title: `${what}: ranks ${ranks.join(', ')}` });
-      } else {
-        if (opts.ranks !== undefined) throw new UsageError('Option --ranks given with an arrangement when expected a catalogue file.');
-        const cluster = resolveArrangement(what);
-        const areas = areasForCluster(cluster, opts.areas, what);
-        const eq = relax(cluster.map, areas);
-        svg = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), style);
-        if (eq.status !== 'ok') cliStreams().err.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
-      }
-      if (opts.out) writeFileAtomic(opts.out, svg);
-      else cliStreams().out.write(svg);
+      const fromFile = what.endsWith('.json') || (existsSync(what) && !/^[0-9]+(\.[0-9]+|:.*)$/.test(what));
+      await withRunFiles(fromFile ? [what] : [], (files) => (opts.out === undefined ? null : files.add(opts.out, '--out')), (out) => {
+        const svg = fromFile ? catalogueSvg(what, opts.ranks, style) : arrangementSvg(what, opts, style);
+        if (out !== null) out.write(svg);
+        else writeOut(svg);
+      });
     });
+}
+
+/** The drawing of ranked entries of a catalogue file (rank 1 alone by default). */
+function catalogueSvg(what: string, given: number[] | undefined, style: { pressures?: boolean; junctions?: boolean }): string {
+  const catalogue = loadCatalogue(what);
+  const ranks: number[] = given ?? [1];
+  const items: SheetItem[] = [];
+  for (const r of ranks) {
+    const entry = catalogue.entries.find((e) => e.rank === r);
+    if (entry === undefined) {
+      const most = catalogue.entries.filter((e) => e.rank !== null).length;
+      throw new UsageError(`Rank ${r} is not in ${what} when expected 1 to ${most}.`);
+    }
+    items.push({ drawing: entryDrawing(entry)!, rank: r, id: entry.id, perimeter: entry.perimeter ?? undefined, note: `index ${entry.index}` });
+  }
+  return items.length === 1 && given === undefined
+    ? renderClusterSvg({ ...items[0].drawing, caption: `#1  perimeter ${items[0].perimeter?.toPrecision(10)}` }, style)
+    : renderContactSheet(items, { ...style, title: `${what}: ranks ${ranks.join(', ')}` });
+}
+
+/** The drawing of one arrangement at its equilibrium (or where the solve stopped, said on stderr). */
+function arrangementSvg(what: string, opts: { areas?: number[]; ranks?: number[] }, style: { pressures?: boolean; junctions?: boolean }): string {
+  if (opts.ranks !== undefined) throw new UsageError('Option --ranks given with an arrangement when expected a catalogue file.');
+  const cluster = resolveArrangement(what);
+  const areas = areasForCluster(cluster, opts.areas, what);
+  const eq = relax(cluster.map, areas);
+  if (eq.status !== 'ok') cliStreams().err.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
+  return renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), style);
 }

@@ -9,7 +9,8 @@ import { estimateClusterCount } from '../maps/estimate.ts';
 import { UsageError } from '../errors.ts';
 import { type ArrangementFilter, isFiltering, passesFilter } from '../catalogue/filter.ts';
 import { LIST_LIMIT, oneOf, parseCells, parseShard, wholeNumber } from './parse.ts';
-import { Output } from './output.ts';
+import { eventLoopTurns } from '../event-loop.ts';
+import { Output, withRunFiles } from './output.ts';
 import { startProgress } from './progress.ts';
 
 /** Refuse big enumerations unless asked, with an estimate of count and time. */
@@ -80,37 +81,39 @@ export function addListCommand(program: Command): void {
     .option('--shard <i/k>', 'do part i of k of the work (union of all parts = the whole)', parseShard)
     .option('--large', `allow more than ${LIST_LIMIT} cells`)
     .option('--out <file>', 'write to a file (whole or not at all) instead of standard output')
-    .action((cells: number, opts) => {
+    .action(async (cells: number, opts) => {
       checkSize(cells, opts.large, LIST_LIMIT, 'list');
       const filter: ArrangementFilter = {
         threeConnected: opts.threeConnected, lens: opts.lens, maxSides: opts.maxSides, minSides: opts.minSides,
       };
-      const output = new Output(opts.out ?? null);
-      try {
+      await withRunFiles([], (files) => (opts.out === undefined ? null : files.add(opts.out, '--out')), async (file) => {
+        const output = new Output(file);
         if (opts.count) writeCounts(output, cells, opts.shard, filter);
-        else writeList(output, cells, opts.format, opts.shard, filter);
-        output.close();
-      } catch (error) {
-        output.abort();
-        throw error;
-      }
+        else await writeList(output, cells, opts.format, opts.shard, filter);
+        output.flush();
+      });
     });
 }
 
-function writeList(
+async function writeList(
   output: Output,
   cells: number,
   format: 'table' | 'jsonl' | 'graphml',
   shard: { index: number; count: number } | undefined,
   filter: ArrangementFilter,
-): void {
+): Promise<void> {
   const progress = startProgress(`cells ${cells}`, Math.round(estimateClusterCount(cells).clusters / (shard?.count ?? 1)));
   if (format === 'table') output.line(tableHead(cells));
   if (format === 'graphml') output.line(GRAPHML_HEAD);
+  const turn = eventLoopTurns();
   let k = 0;
   for (const cluster of enumerateClusters(cells, { shard })) {
     k++;
-    if ((k & 1023) === 0) progress.update(k);
+    if ((k & 255) === 0) {
+      progress.update(k);
+      await output.ready(); // a slow reader holds the enumeration back, so memory stays flat
+      await turn(); // and a signal is heard
+    }
     const summary = summarizeCluster(cluster);
     if (!passesFilter(summary, filter)) continue;
     // ids are positions in the whole enumeration, so a shard cannot know them

@@ -5,7 +5,8 @@
 import { Command, CommanderError, InvalidArgumentError } from 'commander';
 import { LatherError } from '../errors.ts';
 import { packageInfo } from '../version.ts';
-import { type CliStreams, cliStreams, withStreams } from './streams.ts';
+import { OutputError } from './output.ts';
+import { type CliStreams, cliStreams, ReaderClosed, withStreams } from './streams.ts';
 
 /** One verb: its name, the summary shown by `lather --help`, and how to attach it to the program. */
 interface Verb {
@@ -84,24 +85,26 @@ function isInputError(error: unknown): boolean {
 }
 
 /**
- * Run the program on argv (node's, so the arguments start at argv[2]); returns the exit status: 0 done,
- * 2 bad input or usage (one line on stderr), 1 a failed run. Writes to `streams` (the process's own by
- * default); never exits the process.
+ * Run the program on argv (node's, so the arguments start at argv[2]); returns the exit status: 0 done
+ * (or standard output's reader closed early: the run ends quietly), 2 bad input, usage or an output that
+ * cannot be written (one line on stderr), 1 a failed run. Writes to `streams` (the process's own by
+ * default) and returns only when what it wrote has been handed on; never exits the process.
  */
 export async function main(argv: readonly string[], streams: CliStreams = cliStreams()): Promise<number> {
-  return withStreams(streams, async () => {
-    try {
+  try {
+    await withStreams(streams, (message) => new OutputError(message), async () => {
       const program = await buildProgram(argv);
       await program.parseAsync(argv as string[]);
-      return 0;
-    } catch (error) {
-      if (error instanceof CommanderError) {
-        // help and version exit cleanly; commander has already printed its one-line complaint
-        return error.exitCode === 0 ? 0 : 2;
-      }
-      const message = error instanceof Error ? error.message : String(error);
-      streams.err.write(`lather: ${message.split('\n')[0]}\n`);
-      return isInputError(error) ? 2 : 1;
+    });
+    return 0;
+  } catch (error) {
+    if (error instanceof ReaderClosed) return 0;
+    if (error instanceof CommanderError) {
+      // help and version exit cleanly; commander has already printed its one-line complaint
+      return error.exitCode === 0 ? 0 : 2;
     }
-  });
+    const message = error instanceof Error ? error.message : String(error);
+    streams.err.write(`lather: ${message.split('\n')[0]}\n`);
+    return isInputError(error) ? 2 : 1;
+  }
 }

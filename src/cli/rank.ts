@@ -6,7 +6,7 @@ import { writeCatalogue } from '../catalogue/format.ts';
 import type { ArrangementFilter } from '../catalogue/filter.ts';
 import { areasFrom, parseAreas } from './areas.ts';
 import { wholeNumber } from './parse.ts';
-import { writeFileAtomic } from './io.ts';
+import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { catalogueTable } from './table.ts';
 import { entriesSheet } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
@@ -46,21 +46,31 @@ export function addRankCommand(program: Command): void {
       if (opts.lens === false) filter.lens = false;
       if (opts.maxSides !== undefined) filter.maxSides = opts.maxSides;
       if (opts.minSides !== undefined) filter.minSides = opts.minSides;
-      let progress: Progress | null = null;
-      const catalogue = await rankAreas(areas, {
-        filter, budgetSeconds: opts.budget, workers: opts.workers ?? defaultWorkers(), seed: opts.seed, large: opts.large,
-        onProgress: (done, total) => {
-          progress ??= startProgress('relaxing', total);
-          progress.update(done);
-        },
+      const declare = (files: RunFiles) => ({
+        out: opts.out === undefined ? null : files.add(opts.out, '--out'),
+        sheet: opts.sheet === undefined ? null : files.add(opts.sheet, '--sheet'),
       });
-      (progress as Progress | null)?.stop();
-      if (opts.out) writeFileAtomic(opts.out, writeCatalogue(catalogue));
-      if (opts.sheet) {
-        const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, 12));
-        if (top.length > 0) writeFileAtomic(opts.sheet, entriesSheet(top, `areas ${areas.join(', ')}`));
-        else cliStreams().err.write('lather: no certified equilibrium to draw; no sheet written\n');
-      }
-      cliStreams().out.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
+      const catalogue = await withRunFiles([], declare, async ({ out, sheet }, files) => {
+        let progress: Progress | null = null;
+        const catalogue = await rankAreas(areas, {
+          filter, budgetSeconds: opts.budget, workers: opts.workers ?? defaultWorkers(), seed: opts.seed, large: opts.large,
+          onProgress: (done, total) => {
+            progress ??= startProgress('relaxing', total);
+            progress.update(done);
+          },
+        });
+        (progress as Progress | null)?.stop();
+        out?.write(writeCatalogue(catalogue));
+        if (sheet !== null) {
+          const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, 12));
+          if (top.length > 0) sheet.write(entriesSheet(top, `areas ${areas.join(', ')}`));
+          else {
+            files.discard(sheet);
+            cliStreams().err.write('lather: no certified equilibrium to draw; no sheet written\n');
+          }
+        }
+        return catalogue;
+      });
+      writeOut(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
     });
 }

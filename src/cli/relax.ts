@@ -11,7 +11,7 @@ import type { Equilibrium } from '../solver/result.ts';
 import { renderClusterSvg } from '../render/svg.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
-import { writeFileAtomic } from './io.ts';
+import { withRunFiles, writeOut } from './output.ts';
 import { equilibriumDrawing } from './drawings.ts';
 import { cliStreams } from './streams.ts';
 
@@ -87,15 +87,15 @@ export function addRelaxCommand(program: Command): void {
     .option('--svg <file>', 'write a drawing of the answer')
     .option('--pressures', 'show pressures in the drawing')
     .option('--junctions', 'mark junctions in the drawing')
-    .action((what: string, opts) => {
+    .action(async (what: string, opts) => {
       const cluster = resolveArrangement(what);
       const areas = areasForCluster(cluster, opts.areas, what);
-      const eq = relax(cluster.map, areas);
-      if (opts.svg) {
-        const svg = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), { pressures: opts.pressures, junctions: opts.junctions });
-        writeFileAtomic(opts.svg, svg);
-      }
+      const eq = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {
+        const eq = relax(cluster.map, areas);
+        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), { pressures: opts.pressures, junctions: opts.junctions }));
+        return eq;
+      });
       const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, eq), null, 2) : relaxSummary(what, cluster, areas, eq).join('\n');
-      cliStreams().out.write(text + '\n');
+      writeOut(text + '\n');
     });
 }

@@ -7,7 +7,7 @@ import type { Catalogue } from '../catalogue/types.ts';
 import { UsageError } from '../errors.ts';
 import { wholeNumber } from './parse.ts';
 import { catalogueTable } from './table.ts';
-import { cliStreams } from './streams.ts';
+import { writeOut } from './output.ts';
 
 /** Read and check a catalogue file. @throws UsageError or CatalogueFormatError. */
 export function loadCatalogue(path: string): Catalogue {
@@ -30,6 +30,6 @@ export function addShowCommand(program: Command): void {
     .option('--stable-only', 'show only equilibria of index 0')
     .action((file: string, opts) => {
       const catalogue = loadCatalogue(file);
-      cliStreams().out.write(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
+      writeOut(catalogueTable(catalogue, opts.top, Boolean(opts.stableOnly)).join('\n') + '\n');
     });
 }

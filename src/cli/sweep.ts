@@ -8,7 +8,7 @@ import { type SweepDomain, checkFormulasOnDomain, parameterNames, parseShares, p
 import { sweepPath } from '../sweep/path.ts';
 import { sweepRegion } from '../sweep/region.ts';
 import { pathSweepJson, regionSweepJson } from '../sweep/format.ts';
-import { writeFileAtomic } from './io.ts';
+import { type OutputFile, type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { wholeNumber } from './parse.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { pathPlot, pathTable, regionPlot, regionTable } from './sweep-output.ts';
@@ -60,7 +60,7 @@ export function addSweepCommand(program: Command): void {
     .option('--min-sides <k>', 'only arrangements whose cells have at least k sides', wholeNumber(1))
     .option('--json [file]', 'write every sample, transition and boundary as JSON to the file (or to stdout instead of the table)')
     .option('--plot <file.svg>', 'draw the path plot or the region map')
-    .action((opts) => {
+    .action(async (opts) => {
       // everything is checked before any relaxing
       const domain = domainFrom(opts);
       const formulas = parseAreaFormulas(opts.areas, parameterNames(domain));
@@ -70,29 +70,42 @@ export function addSweepCommand(program: Command): void {
       if (opts.lens === false) filter.lens = false;
       if (opts.maxSides !== undefined) filter.maxSides = opts.maxSides;
       if (opts.minSides !== undefined) filter.minSides = opts.minSides;
-      let progress: Progress | null = null;
-      const onProgress = (done: number, total: number): void => {
-        progress ??= startProgress('sweeping', total);
-        progress.update(done);
-      };
-      const query = { filter, competitors: opts.competitors };
-      let json: string;
-      let lines: string[];
-      let svg: () => string;
-      if (domain.kind === 'path') {
-        const s = sweepPath(formulas, domain, { filter, competitors: opts.competitors, onProgress });
-        json = pathSweepJson(s, query);
-        lines = pathTable(s);
-        svg = () => pathPlot(s);
-      } else {
-        const s = sweepRegion(formulas, domain, { filter, competitors: opts.competitors, onProgress });
-        json = regionSweepJson(s, query);
-        lines = regionTable(s);
-        svg = () => regionPlot(s);
-      }
-      (progress as Progress | null)?.stop();
-      if (typeof opts.json === 'string') writeFileAtomic(opts.json, json);
-      if (opts.plot) writeFileAtomic(opts.plot, svg());
-      cliStreams().out.write(opts.json === true ? json : `${lines.join('\n')}\n`);
+      const declare = (files: RunFiles) => ({
+        json: typeof opts.json === 'string' ? files.add(opts.json, '--json') : null,
+        plot: opts.plot === undefined ? null : files.add(opts.plot, '--plot'),
+      });
+      const text = await withRunFiles([], declare, (outputs) => sweepTo(formulas, domain, filter, opts.competitors, opts.json === true, outputs));
+      writeOut(text);
     });
+}
+
+/** Sweep, write the JSON and the plot files asked for, and return what standard output gets. */
+function sweepTo(
+  formulas: ReturnType<typeof parseAreaFormulas>, domain: SweepDomain, filter: ArrangementFilter, competitors: number,
+  jsonToStdout: boolean, outputs: { json: OutputFile | null; plot: OutputFile | null },
+): string {
+  let progress: Progress | null = null;
+  const onProgress = (done: number, total: number): void => {
+    progress ??= startProgress('sweeping', total);
+    progress.update(done);
+  };
+  const query = { filter, competitors };
+  let json: string;
+  let lines: string[];
+  let svg: () => string;
+  if (domain.kind === 'path') {
+    const s = sweepPath(formulas, domain, { filter, competitors, onProgress });
+    json = pathSweepJson(s, query);
+    lines = pathTable(s);
+    svg = () => pathPlot(s);
+  } else {
+    const s = sweepRegion(formulas, domain, { filter, competitors, onProgress });
+    json = regionSweepJson(s, query);
+    lines = regionTable(s);
+    svg = () => regionPlot(s);
+  }
+  (progress as Progress | null)?.stop();
+  outputs.json?.write(json);
+  outputs.plot?.write(svg());
+  return jsonToStdout ? json : `${lines.join('\n')}\n`;
 }

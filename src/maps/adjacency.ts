@@ -24,13 +24,16 @@ function escapeXml(text: string): string {
 
 /** One <graph> element (GraphML) for a dual graph; `id` names it. */
 export function graphmlGraph(graph: MultiGraph, id: string): string {
-  const lines = [`  <graph id="${escapeXml(id)}" edgedefault="undirected">`];
+  // node and edge ids carry the graph's id, so a document of many graphs has every id once (GraphML asks
+  // for ids unique in the document)
+  const at = escapeXml(id);
+  const lines = [`  <graph id="${at}" edgedefault="undirected">`];
   lines.push(`    <data key="code">${escapeXml(String(graph.getAttribute('code')))}</data>`);
   graph.forEachNode((node, attrs) => {
-    lines.push(`    <node id="${node}"><data key="kind">${attrs.kind}</data><data key="sides">${attrs.sides}</data></node>`);
+    lines.push(`    <node id="${at}:${node}"><data key="kind">${attrs.kind}</data><data key="sides">${attrs.sides}</data></node>`);
   });
   graph.forEachEdge((edge, attrs, source, target) => {
-    lines.push(`    <edge id="${edge}" source="${source}" target="${target}"><data key="wall">${attrs.wall}</data></edge>`);
+    lines.push(`    <edge id="${at}:${edge}" source="${at}:${source}" target="${at}:${target}"><data key="wall">${attrs.wall}</data></edge>`);
   });
   lines.push('  </graph>');
   return lines.join('\n');
