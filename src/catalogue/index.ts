@@ -2,6 +2,7 @@
 
 export * from '../errors.ts';
 export { type RankOptions, rankAreas, checkAreas } from './rank.ts';
+export { type RankPart, rankShard, mergeParts, readPart, writePart, shardTasks, PART_FORMAT, PART_VERSION } from './shard.ts';
 export { type ArrangementFilter, passesFilter } from './filter.ts';
 export { writeCatalogue, readCatalogue, CATALOGUE_SCHEMA_URL } from './format.ts';
 export type { Catalogue, CatalogueEntry, CatalogueCounts, CatalogueQuery } from './types.ts';

@@ -71,24 +71,40 @@ function estimateClusters(n: number): number {
   return (Number(rootedMapCount(n - 1)) * (n + 1)) / (12 * (n - 1));
 }
 
-interface Planned {
+export interface Planned {
   cluster: Cluster;
   id: string;
   sides: number[];
   candidates: number;
 }
 
+/** A ranking before any relaxing: the query, the kept arrangements and one task per arrangement. */
+export interface RankPlan {
+  query: Catalogue['query'];
+  /** Arrangements enumerated, and the rooting identity over all of them. */
+  enumerated: number;
+  rootings: Catalogue['counts']['rootings'];
+  /** Candidates among the kept arrangements. */
+  candidates: number;
+  classes: AreaClasses;
+  planned: Planned[];
+  /** One task per kept arrangement, in enumeration order; `tasks[k]` relaxes `planned[k]`. */
+  tasks: ClusterTask[];
+  /** Candidates the tasks will relax (all, or the search's caps). */
+  work: number[];
+  ids: Map<string, string>;
+}
+
 /**
- * Rank every arrangement of areas.length cells at those areas. Exhaustive when the candidates fit the
- * budget; otherwise a local search per arrangement (see evaluate.ts), and the counts say so.
+ * Plan a ranking: enumerate, filter, count candidates, and decide from the query alone (never from the
+ * workers or the machine) whether each arrangement is relaxed exhaustively or searched.
  * @throws UsageError for bad areas or too many cells.
  */
-export async function rankAreas(areas: readonly number[], options: RankOptions = {}): Promise<Catalogue> {
+export function planRanking(areas: readonly number[], options: RankOptions = {}): RankPlan {
   checkAreas(areas, options.large);
   const n = areas.length;
   const filter = options.filter ?? {};
   const budgetSeconds = options.budgetSeconds ?? 60;
-  const workers = Math.max(1, Math.floor(options.workers ?? 1));
   const seed = options.seed ?? 1;
   const classes = areaClasses([...areas]);
 
@@ -118,11 +134,39 @@ export async function rankAreas(areas: readonly number[], options: RankOptions =
     code: p.cluster.code, classes, mode: p.candidates <= cap ? 'all' : 'search',
     cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton,
   }));
-  const total = tasks.reduce((p, t, k) => p + (t.mode === 'all' ? planned[k].candidates : t.cap), 0);
-  const results = await runTasks(tasks, workers, total, options.onProgress);
+  return {
+    query: { areas: [...areas], filter, budgetSeconds, seed },
+    enumerated,
+    rootings: {
+      sum: n >= 2 ? String(rootings) : '0',
+      expected: n >= 2 ? String(BigInt(n + 1) * rootedMapCount(n - 1)) : '0',
+    },
+    candidates, classes, planned, tasks,
+    work: tasks.map((t, k) => (t.mode === 'all' ? planned[k].candidates : t.cap)),
+    ids,
+  };
+}
 
-  const entries = buildEntries(planned, results, classes, [...areas], ids);
-  const tried = results.reduce((p, r) => p + r.length, 0);
+/**
+ * Rank every arrangement of areas.length cells at those areas. Exhaustive when the candidates fit the
+ * budget; otherwise a local search per arrangement (see evaluate.ts), and the counts say so.
+ * @throws UsageError for bad areas or too many cells.
+ */
+export async function rankAreas(areas: readonly number[], options: RankOptions = {}): Promise<Catalogue> {
+  const plan = planRanking(areas, options);
+  const workers = Math.max(1, Math.floor(options.workers ?? 1));
+  const total = plan.work.reduce((p, q) => p + q, 0);
+  const results = await runTasks(plan.tasks, workers, total, options.onProgress);
+  return assembleCatalogue(plan, results.flatMap((list, k) => unrankedEntries(plan, k, list)));
+}
+
+/**
+ * The catalogue of a plan from the entries of its relaxed candidates (in any order: they are put in the
+ * ranking's total order here), with the counts taken from the entries.
+ */
+export function assembleCatalogue(plan: RankPlan, unranked: CatalogueEntry[]): Catalogue {
+  const entries = rankEntries(unranked);
+  const tried = entries.length;
   const failures: Record<string, number> = {};
   let equilibria = 0;
   let stable = 0;
@@ -135,21 +179,18 @@ export async function rankAreas(areas: readonly number[], options: RankOptions =
   return {
     format: CATALOGUE_FORMAT,
     version: CATALOGUE_VERSION,
-    query: { areas: [...areas], filter, budgetSeconds, seed },
+    query: plan.query,
     counts: {
-      enumerated, arrangements: planned.length, candidates, tried, skipped: candidates - tried, exhaustive: tried === candidates,
-      equilibria, stable, failures,
-      rootings: {
-        sum: n >= 2 ? String(rootings) : '0',
-        expected: n >= 2 ? String(BigInt(n + 1) * rootedMapCount(n - 1)) : '0',
-      },
+      enumerated: plan.enumerated, arrangements: plan.planned.length, candidates: plan.candidates, tried,
+      skipped: plan.candidates - tried, exhaustive: tried === plan.candidates, equilibria, stable, failures,
+      rootings: plan.rootings,
     },
     entries,
   };
 }
 
 /** Run the tasks in this thread or on a pool; results in task order either way. */
-async function runTasks(
+export async function runTasks(
   tasks: ClusterTask[], workers: number, total: number, onProgress?: (done: number, total: number) => void,
 ): Promise<CandidateResult[][]> {
   let done = 0;
@@ -210,39 +251,42 @@ async function runTasks(
 /** Significant digits perimeters are compared at, so rounding noise never reorders equal perimeters. */
 export const ORDER_DIGITS = 11;
 
-function buildEntries(
-  planned: Planned[], results: CandidateResult[][], classes: AreaClasses, areas: number[], ids: Map<string, string>,
-): CatalogueEntry[] {
-  const entries: CatalogueEntry[] = [];
-  results.forEach((list, k) => {
-    const p = planned[k];
-    for (const r of list) {
-      const eq = r.equilibrium;
-      const ok = eq.status === 'ok';
-      const s = Int32Array.from(r.assignment);
-      const assignment = userIndices(s, classes);
-      entries.push({
-        rank: null,
-        id: p.id,
-        code: p.cluster.code,
-        sides: p.sides,
-        assignment,
-        cellAreas: assignment.map((i) => areas[i]),
-        status: eq.status,
-        perimeter: ok ? eq.perimeter : null,
-        gapPercent: null,
-        index: ok ? eq.index : null,
-        zeroModes: ok ? eq.zeroModes : null,
-        pressures: ok ? [...eq.pressures] : null,
-        geometry: ok ? { coords: [...eq.coords], bulges: [...eq.bulges] } : null,
-        certificate: { ...eq.certificate },
-        iterations: eq.iterations,
-        collapsingWall: eq.collapsingWall,
-        becomes: r.becomes === null ? null : { code: r.becomes, id: ids.get(r.becomes) ?? '?' },
-        collapsingCell: eq.collapsingCell,
-      });
-    }
+/** The entries (not yet ranked) of the candidates task k of a plan relaxed. */
+export function unrankedEntries(plan: RankPlan, k: number, results: readonly CandidateResult[]): CatalogueEntry[] {
+  const p = plan.planned[k];
+  const areas = plan.query.areas;
+  return results.map((r) => {
+    const eq = r.equilibrium;
+    const ok = eq.status === 'ok';
+    const assignment = userIndices(Int32Array.from(r.assignment), plan.classes);
+    return {
+      rank: null,
+      id: p.id,
+      code: p.cluster.code,
+      sides: p.sides,
+      assignment,
+      cellAreas: assignment.map((i) => areas[i]),
+      status: eq.status,
+      perimeter: ok ? eq.perimeter : null,
+      gapPercent: null,
+      index: ok ? eq.index : null,
+      zeroModes: ok ? eq.zeroModes : null,
+      pressures: ok ? [...eq.pressures] : null,
+      geometry: ok ? { coords: [...eq.coords], bulges: [...eq.bulges] } : null,
+      certificate: { ...eq.certificate },
+      iterations: eq.iterations,
+      collapsingWall: eq.collapsingWall,
+      becomes: r.becomes === null ? null : { code: r.becomes, id: plan.ids.get(r.becomes) ?? '?' },
+      collapsingCell: eq.collapsingCell,
+    };
   });
+}
+
+/**
+ * Put entries in the ranking's total order (perimeter at ORDER_DIGITS, then code, then assignment:
+ * whatever order they come in) and number the certified ones, with their gap to the best.
+ */
+function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
   const key = (e: CatalogueEntry) => e.assignment.join(',');
   entries.sort((a, b) => {
     if (a.perimeter !== null && b.perimeter !== null) {

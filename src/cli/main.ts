@@ -33,6 +33,11 @@ const VERBS: readonly Verb[] = [
     load: async () => (await import('./rank.ts')).addRankCommand,
   },
   {
+    name: 'merge',
+    summary: 'put the parts of a sharded ranking (rank --shard) together into its catalogue',
+    load: async () => (await import('./merge.ts')).addMergeCommand,
+  },
+  {
     name: 'draw',
     summary: 'draw an arrangement at its equilibrium, or ranked entries of a catalogue file, as SVG',
     load: async () => (await import('./draw.ts')).addDrawCommand,

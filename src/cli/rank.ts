@@ -1,11 +1,14 @@
 // cli stage: `lather rank`, every arrangement ranked by perimeter at the given areas.
 
 import { type Command } from 'commander';
-import { rankAreas, defaultWorkers } from '../catalogue/rank.ts';
+import { type RankOptions, rankAreas, defaultWorkers } from '../catalogue/rank.ts';
+import { rankShard, writePart } from '../catalogue/shard.ts';
+import { UsageError } from '../errors.ts';
+import { packageInfo } from '../version.ts';
 import { writeCatalogue } from '../catalogue/format.ts';
 import type { ArrangementFilter } from '../catalogue/filter.ts';
 import { areasFrom, parseAreas } from './areas.ts';
-import { wholeNumber } from './parse.ts';
+import { parseShard, wholeNumber } from './parse.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { catalogueTable } from './table.ts';
 import { entriesSheet } from './drawings.ts';
@@ -13,12 +16,66 @@ import { startProgress, type Progress } from './progress.ts';
 import { InvalidArgumentError } from 'commander';
 import { cliStreams } from './streams.ts';
 
+/** A shard of a ranking, 1-based. */
+interface Shard {
+  index: number;
+  count: number;
+}
+
 function positiveSeconds(text: string): number {
   const v = Number(text);
   if (!(text.trim() !== '' && Number.isFinite(v) && v >= 0)) {
     throw new InvalidArgumentError(`Budget "${text}" is not valid when expected a number of seconds >= 0.`);
   }
   return v;
+}
+
+/** --shard: "i/k" (1-based) or "slurm". */
+function rankShardOption(text: string): Shard | 'slurm' {
+  if (text.trim() === 'slurm') return 'slurm';
+  const { index, count } = parseShard(text);
+  return { index: index + 1, count };
+}
+
+/** The shard of a Slurm job array task, from its environment. @throws UsageError naming a missing variable. */
+export function slurmShard(env: NodeJS.ProcessEnv): Shard {
+  const read = (name: string, fallback?: number): number => {
+    const text = env[name];
+    if (text === undefined && fallback !== undefined) return fallback;
+    if (text === undefined || !/^[0-9]+$/.test(text)) {
+      throw new UsageError(`Variable ${name} is ${text === undefined ? 'not set' : `"${text}"`} when expected a whole number from a Slurm job array (--shard slurm).`);
+    }
+    return Number(text);
+  };
+  const index = read('SLURM_ARRAY_TASK_ID') - read('SLURM_ARRAY_TASK_MIN', 0) + 1;
+  const count = read('SLURM_ARRAY_TASK_COUNT');
+  if (!(index >= 1 && index <= count)) {
+    throw new UsageError(`Slurm array task ${index} of ${count} is not valid when expected an array of consecutive task ids (e.g. --array=1-${count}).`);
+  }
+  return { index, count };
+}
+
+/** rank --shard: rank one shard and write its part file. */
+async function rankPart(areas: number[], shard: Shard, options: RankOptions, opts: { out?: string; sheet?: string }): Promise<void> {
+  if (opts.out === undefined) throw new UsageError('Option --shard given without --out when expected a part file to write.');
+  if (opts.sheet !== undefined) throw new UsageError('Option --sheet given with --shard when expected it with a whole ranking (or with merge).');
+  const part = await withRunFiles([], (files) => files.add(opts.out as string, '--out'), async (out) => {
+    let progress: Progress | null = null;
+    const part = await rankShard(areas, shard, packageInfo().version, {
+      ...options,
+      onProgress: (done, total) => {
+        progress ??= startProgress(`relaxing shard ${shard.index}/${shard.count}`, total);
+        progress.update(done);
+      },
+    });
+    (progress as Progress | null)?.stop();
+    out.write(writePart(part));
+    return part;
+  });
+  writeOut(
+    `shard ${shard.index}/${shard.count}: ${part.tasks.length} of ${part.totals.tasks} arrangements, ` +
+      `${part.entries.length} candidates relaxed; part written to ${opts.out}\n`,
+  );
 }
 
 /** Attach `rank` to the program. */
@@ -39,6 +96,12 @@ export function addRankCommand(program: Command): void {
     .option('--large', 'allow more than 9 cells')
     .option('--out <file.json>', 'write the catalogue (whole or not at all)')
     .option('--sheet <file.svg>', 'write a contact sheet of the top drawings')
+    .option(
+      '--shard <i/k>',
+      'rank only part i of k and write it with --out as a part file for `lather merge`; "slurm" takes i and k ' +
+        'from a Slurm job array (SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN, SLURM_ARRAY_TASK_COUNT)',
+      rankShardOption,
+    )
     .action(async (opts) => {
       const areas = areasFrom(opts);
       const filter: ArrangementFilter = {};
@@ -46,6 +109,12 @@ export function addRankCommand(program: Command): void {
       if (opts.lens === false) filter.lens = false;
       if (opts.maxSides !== undefined) filter.maxSides = opts.maxSides;
       if (opts.minSides !== undefined) filter.minSides = opts.minSides;
+      if (opts.shard !== undefined) {
+        await rankPart(areas, opts.shard === 'slurm' ? slurmShard(process.env) : opts.shard, {
+          filter, budgetSeconds: opts.budget, workers: opts.workers ?? defaultWorkers(), seed: opts.seed, large: opts.large,
+        }, opts);
+        return;
+      }
       const declare = (files: RunFiles) => ({
         out: opts.out === undefined ? null : files.add(opts.out, '--out'),
         sheet: opts.sheet === undefined ? null : files.add(opts.sheet, '--sheet'),

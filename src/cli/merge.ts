@@ -1,0 +1,48 @@
+// cli stage: `lather merge PART... --out FILE`, the parts of a sharded ranking put back together into the
+// catalogue a single run writes (byte for byte), checked before anything is written.
+
+import { readFileSync } from 'node:fs';
+import { type Command } from 'commander';
+import { readCatalogue, writeCatalogue } from '../catalogue/format.ts';
+import { mergeParts, readPart } from '../catalogue/shard.ts';
+import { UsageError } from '../errors.ts';
+import { packageInfo } from '../version.ts';
+import { entriesSheet } from './drawings.ts';
+import { type RunFiles, withRunFiles, writeOut } from './output.ts';
+import { wholeNumber } from './parse.ts';
+import { catalogueTable } from './table.ts';
+
+/** Attach `merge` to the program. */
+export function addMergeCommand(program: Command): void {
+  program
+    .command('merge')
+    .argument('<parts...>', 'the part files written by rank --shard i/k, every shard once, in any order')
+    .requiredOption('--out <file.json>', 'write the merged catalogue (whole or not at all)')
+    .option('--sheet <file.svg>', 'write a contact sheet of the top drawings')
+    .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1), 25)
+    .action(async (paths: string[], opts) => {
+      const declare = (files: RunFiles) => ({
+        out: files.add(opts.out, '--out'),
+        sheet: opts.sheet === undefined ? null : files.add(opts.sheet, '--sheet'),
+      });
+      const catalogue = await withRunFiles(paths, declare, ({ out, sheet }) => {
+        const parts = paths.map((source) => {
+          let text: string;
+          try {
+            text = readFileSync(source, 'utf8');
+          } catch (error) {
+            throw new UsageError(`Cannot read part ${source} (${(error as NodeJS.ErrnoException).code ?? 'error'}) when expected a part file.`);
+          }
+          return { part: readPart(text, source), source };
+        });
+        const text = writeCatalogue(mergeParts(parts, packageInfo().version));
+        // the merged catalogue must pass every check a reader makes
+        const catalogue = readCatalogue(text, opts.out);
+        out.write(text);
+        const top = catalogue.entries.filter((e) => e.rank !== null).slice(0, Math.min(opts.top, 12));
+        if (sheet !== null) sheet.write(entriesSheet(top, `areas ${catalogue.query.areas.join(', ')}`));
+        return catalogue;
+      });
+      writeOut(catalogueTable(catalogue, opts.top, false).join('\n') + '\n');
+    });
+}
