@@ -7,7 +7,7 @@
 import { closeSync, constants, fsyncSync, lstatSync, openSync, realpathSync, renameSync, rmSync, statSync, writeSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
 import { LatherError, UsageError } from '../errors.ts';
-import { cliStreams, streamFailure } from './streams.ts';
+import { cliStreams, streamFailure, writeFailure } from './streams.ts';
 
 /** A result that could not be written (a full disk, a closed device): one line, exit status 2. */
 export class OutputError extends LatherError {
@@ -21,12 +21,6 @@ const temporaryFiles = new Set<string>();
 export function removeTemporaryFiles(): void {
   for (const path of temporaryFiles) rmSync(path, { force: true });
   temporaryFiles.clear();
-}
-
-/** Why a write failed, in the words of its error code. */
-function reason(error: unknown): string {
-  const e = error as NodeJS.ErrnoException;
-  return e.code !== undefined ? `${e.code}: ${e.message.split(',')[0].replace(/^[A-Z]+: /, '')}` : String(error);
 }
 
 /** One output file of a run. */
@@ -66,7 +60,7 @@ export class OutputFile {
       let offset = 0;
       while (offset < bytes.length) offset += writeSync(this.fd, bytes, offset);
     } catch (error) {
-      throw new OutputError(`Cannot write ${this.given} (${reason(error)}).`);
+      throw new OutputError(`Cannot write ${this.given} (${writeFailure(error)}).`);
     }
   }
 
@@ -78,7 +72,7 @@ export class OutputFile {
       closeSync(this.fd);
       this.fd = -1;
     } catch (error) {
-      throw new OutputError(`Cannot write ${this.given} (${reason(error)}).`);
+      throw new OutputError(`Cannot write ${this.given} (${writeFailure(error)}).`);
     }
   }
 
@@ -89,7 +83,7 @@ export class OutputFile {
       renameSync(this.tmp, this.target);
       temporaryFiles.delete(this.tmp);
     } catch (error) {
-      throw new OutputError(`Cannot write ${this.given} (${reason(error)}).`);
+      throw new OutputError(`Cannot write ${this.given} (${writeFailure(error)}).`);
     }
   }
 

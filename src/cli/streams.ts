@@ -31,10 +31,17 @@ export function streamFailure(): Error | null {
   return current?.failure ?? null;
 }
 
+/** A failed write in a few words: its code and the system's phrase, e.g. "ENOSPC: no space left on device". */
+export function writeFailure(error: unknown): string {
+  const e = error as NodeJS.ErrnoException;
+  if (e.code === undefined) return String(error);
+  return `${e.code}: ${e.message.split(',')[0].replace(/^[A-Z]+: /, '')}`;
+}
+
 /** What a failed write of standard output means for the run. */
 function failureOf(error: NodeJS.ErrnoException, makeError: (message: string) => Error): Error {
   if (error.code === 'EPIPE' || error.code === 'ERR_STREAM_DESTROYED') return new ReaderClosed('standard output closed');
-  return makeError(`Cannot write standard output (${error.code ?? 'error'}: ${error.message.split(',')[0].replace(/^[A-Z]+: /, '')}).`);
+  return makeError(`Cannot write standard output (${writeFailure(error)}).`);
 }
 
 /**
