@@ -8,17 +8,25 @@ import { eventLoopTurns } from '../event-loop.ts';
 import { cellPermutations, enumerateClusters, type Cluster } from '../maps/cluster.ts';
 import { summarizeCluster } from '../maps/describe.ts';
 import { rootedMapCount } from '../maps/count.ts';
+import { CODE_CELL_LIMIT } from '../maps/code.ts';
+import { countText, durationText, estimateClusterCount } from '../maps/estimate.ts';
 import { UsageError } from '../errors.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import { type AreaClasses, areaClasses, orbitCount, userIndices } from './assign.ts';
 import { type CandidateResult, type ClusterTask, evaluateCluster } from './evaluate.ts';
-import { type ArrangementFilter, passesFilter } from './filter.ts';
+import { type ArrangementFilter, checkFilter, isFiltering, passesFilter } from './filter.ts';
 import {
   CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, type CatalogueEntry,
 } from './types.ts';
 
 /** Most cells rank accepts without `large`. */
 export const RANK_LIMIT = 9;
+
+/**
+ * Most worker threads a ranking uses, whatever is asked: each thread holds a relaxer and a copy of its
+ * tasks, and a thread per core is all the work can use (common practice, no source).
+ */
+export const WORKER_LIMIT = 64;
 
 /** Options of rankAreas(). */
 export interface RankOptions {
@@ -29,7 +37,7 @@ export interface RankOptions {
    * reference machine (candidates times secondsPerCandidate): it depends on the query alone. @default 60
    */
   budgetSeconds?: number;
-  /** Worker threads (1 = run in this thread). @default 1 */
+  /** Worker threads (1 = run in this thread), 1 to WORKER_LIMIT. @default 1 */
   workers?: number;
   /** Seed of the search's random starts. @default 1 */
   seed?: number;
@@ -57,18 +65,55 @@ export function checkAreas(areas: readonly number[], large = false): void {
       throw new UsageError(`Area ${i + 1} is ${a} when expected a positive finite number.`);
     }
   });
+  if (areas.length > CODE_CELL_LIMIT) {
+    throw new UsageError(`${areas.length} cells is above ${CODE_CELL_LIMIT} when expected at most ${CODE_CELL_LIMIT} (the most cells an arrangement code holds).`);
+  }
   if (areas.length > RANK_LIMIT && !large) {
-    const clusters = estimateClusters(areas.length);
-    const seconds = clusters * secondsPerCandidate(areas.length);
+    const { clusters } = estimateClusterCount(areas.length);
     throw new UsageError(
       `${areas.length} cells is above ${RANK_LIMIT} when expected at most ${RANK_LIMIT} without --large ` +
-        `(about ${clusters.toPrecision(3)} arrangements, at least ${Math.ceil(seconds / 60)} minutes of relaxing on one core).`,
+        `(about ${countText(clusters)} arrangements, at least ${durationText(minimumSeconds(areas.length, false))} of relaxing on one core).`,
     );
   }
 }
 
-function estimateClusters(n: number): number {
-  return (Number(rootedMapCount(n - 1)) * (n + 1)) / (12 * (n - 1));
+/**
+ * Seconds of work (on one core) any ranking of n cells takes at least: enumerating every arrangement,
+ * and, when no filter removes any, relaxing each at least once (a search still tries one candidate per
+ * arrangement). From the estimated count, a lower bound (estimate.ts).
+ */
+export function minimumSeconds(n: number, filtered: boolean): number {
+  const { clusters, seconds } = estimateClusterCount(n);
+  return seconds + (filtered ? 0 : clusters * secondsPerCandidate(n));
+}
+
+/**
+ * Check the budget of a query before any work: the budget (work on one core, as the choice between
+ * exhaustive and search reads it) must pay for the least work the query takes (minimumSeconds), so a
+ * ranking never runs far beyond it, whatever the workers or shards.
+ * @throws UsageError naming the budget and the estimate.
+ */
+export function checkBudget(n: number, filter: ArrangementFilter, budgetSeconds: number): void {
+  if (!(Number.isFinite(budgetSeconds) && budgetSeconds >= 0)) {
+    throw new UsageError(`Budget ${budgetSeconds} is not valid when expected a finite number of seconds >= 0.`);
+  }
+  const least = minimumSeconds(n, isFiltering(filter));
+  if (least > budgetSeconds) {
+    const what = isFiltering(filter) ? 'to enumerate them' : 'to enumerate them and relax each once';
+    throw new UsageError(
+      `Budget ${budgetSeconds} s is below the least work ${n} cells take, ${durationText(least)} on one core ` +
+        `(${countText(estimateClusterCount(n).clusters)} arrangements, ${what}), when expected a budget of at least ${Math.ceil(least)} s.`,
+    );
+  }
+}
+
+/** The worker threads of rank options: 1 to WORKER_LIMIT (default 1). @throws UsageError otherwise. */
+export function workerCount(options: RankOptions): number {
+  const workers = options.workers ?? 1;
+  if (!(Number.isSafeInteger(workers) && workers >= 1 && workers <= WORKER_LIMIT)) {
+    throw new UsageError(`Workers ${workers} is not valid when expected a whole number from 1 to ${WORKER_LIMIT}.`);
+  }
+  return workers;
 }
 
 export interface Planned {
@@ -104,7 +149,9 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
   checkAreas(areas, options.large);
   const n = areas.length;
   const filter = options.filter ?? {};
+  checkFilter(filter);
   const budgetSeconds = options.budgetSeconds ?? 60;
+  checkBudget(n, filter, budgetSeconds);
   const seed = options.seed ?? 1;
   const classes = areaClasses([...areas]);
 
@@ -153,8 +200,8 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
  * @throws UsageError for bad areas or too many cells.
  */
 export async function rankAreas(areas: readonly number[], options: RankOptions = {}): Promise<Catalogue> {
+  const workers = workerCount(options);
   const plan = planRanking(areas, options);
-  const workers = Math.max(1, Math.floor(options.workers ?? 1));
   const total = plan.work.reduce((p, q) => p + q, 0);
   const results = await runTasks(plan.tasks, workers, total, options.onProgress);
   return assembleCatalogue(plan, results.flatMap((list, k) => unrankedEntries(plan, k, list)));
@@ -307,7 +354,7 @@ function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
   return entries;
 }
 
-/** Default worker count: the cores available. */
+/** Default worker count: the cores available (at most WORKER_LIMIT). */
 export function defaultWorkers(): number {
-  return availableParallelism();
+  return Math.min(availableParallelism(), WORKER_LIMIT);
 }

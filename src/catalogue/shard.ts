@@ -8,7 +8,7 @@
 // arrangement exactly once, then ranks and counts with the code a single run uses (assembleCatalogue).
 
 import { UsageError } from '../errors.ts';
-import { type RankOptions, type RankPlan, assembleCatalogue, planRanking, runTasks, unrankedEntries } from './rank.ts';
+import { type RankOptions, type RankPlan, assembleCatalogue, planRanking, runTasks, unrankedEntries, workerCount } from './rank.ts';
 import type { Catalogue, CatalogueEntry } from './types.ts';
 
 /** Format name of a part file. */
@@ -58,12 +58,12 @@ export function shardTasks(costs: readonly number[], count: number): number[][] 
 export async function rankShard(
   areas: readonly number[], shard: { index: number; count: number }, program: string, options: RankOptions = {},
 ): Promise<RankPart> {
+  const workers = workerCount(options);
   const plan = planRanking(areas, options);
   if (!(Number.isInteger(shard.index) && Number.isInteger(shard.count) && shard.index >= 1 && shard.index <= shard.count)) {
     throw new UsageError(`Shard ${shard.index}/${shard.count} is not valid when expected i/k with 1 <= i <= k.`);
   }
   const mine = shardTasks(plan.work, shard.count)[shard.index - 1];
-  const workers = Math.max(1, Math.floor(options.workers ?? 1));
   const total = mine.reduce((p, k) => p + plan.work[k], 0);
   const results = await runTasks(mine.map((k) => plan.tasks[k]), workers, total, options.onProgress);
   return {

@@ -1,19 +1,18 @@
 // cli stage: `lather rank`, every arrangement ranked by perimeter at the given areas.
 
-import { type Command } from 'commander';
-import { type RankOptions, rankAreas, defaultWorkers } from '../catalogue/rank.ts';
+import { availableParallelism } from 'node:os';
+import { type Command, InvalidArgumentError } from 'commander';
+import { type RankOptions, rankAreas, defaultWorkers, RANK_LIMIT, WORKER_LIMIT } from '../catalogue/rank.ts';
 import { rankShard, writePart } from '../catalogue/shard.ts';
 import { UsageError } from '../errors.ts';
 import { packageInfo } from '../version.ts';
 import { writeCatalogue } from '../catalogue/format.ts';
-import type { ArrangementFilter } from '../catalogue/filter.ts';
 import { areasFrom, parseAreas } from './areas.ts';
-import { parseShard, wholeNumber } from './parse.ts';
+import { filterFromOptions, parseSeconds, parseShard, wholeNumber } from './parse.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { catalogueTable } from './table.ts';
 import { entriesSheet } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
-import { InvalidArgumentError } from 'commander';
 import { cliStreams } from './streams.ts';
 
 /** A shard of a ranking, 1-based. */
@@ -22,12 +21,34 @@ interface Shard {
   count: number;
 }
 
-function positiveSeconds(text: string): number {
-  const v = Number(text);
-  if (!(text.trim() !== '' && Number.isFinite(v) && v >= 0)) {
-    throw new InvalidArgumentError(`Budget "${text}" is not valid when expected a number of seconds >= 0.`);
-  }
+/** Most drawings on the contact sheet of `rank --sheet` (the top ranks, fewer with a smaller --top). */
+export const RANK_SHEET_LIMIT = 12;
+
+function workersCapText(): string {
+  const cores = availableParallelism();
+  return `at most ${cores} (the cores available; up to ${WORKER_LIMIT} with --force-workers)`;
+}
+
+/** --workers: a whole number from 1 to WORKER_LIMIT. */
+function parseWorkers(text: string): number {
+  const v = wholeNumber(1, Infinity, 'Workers')(text);
+  if (v > WORKER_LIMIT) throw new InvalidArgumentError(`Workers ${text.trim()} is above ${WORKER_LIMIT} when expected ${workersCapText()}.`);
   return v;
+}
+
+/**
+ * The worker threads of a run: --workers (at most the cores available, unless --force-workers, and
+ * never above WORKER_LIMIT) or the cores available. @throws UsageError naming the cap.
+ */
+function workersFrom(opts: { workers?: number; forceWorkers?: boolean }): number {
+  if (opts.workers === undefined) {
+    if (opts.forceWorkers) throw new UsageError('Got --force-workers without --workers when expected --workers <n> with it.');
+    return defaultWorkers();
+  }
+  if (opts.workers > availableParallelism() && !opts.forceWorkers) {
+    throw new UsageError(`Workers ${opts.workers} is above the cores available when expected ${workersCapText()}.`);
+  }
+  return opts.workers;
 }
 
 /** --shard: "i/k" (1-based) or "slurm". */
@@ -90,28 +111,37 @@ export function addRankCommand(program: Command): void {
     .option('--no-lens', 'leave out arrangements with a 2-sided cell')
     .option('--max-sides <k>', 'only arrangements whose cells have at most k sides', wholeNumber(1))
     .option('--min-sides <k>', 'only arrangements whose cells have at least k sides', wholeNumber(1))
-    .option('--budget <seconds>', 'work allowed before switching from exhaustive ranking to search', positiveSeconds, 60)
-    .option('--workers <n>', 'worker threads (default: the cores available)', wholeNumber(1))
+    .option('--budget <seconds>', 'work allowed before switching from exhaustive ranking to search', parseSeconds('Budget'), 60)
+    .option('--workers <n>', 'worker threads (default: the cores available)', parseWorkers)
+    .option('--force-workers', `allow --workers above the cores available (up to ${WORKER_LIMIT})`)
     .option('--seed <n>', 'seed of the search starts (when not exhaustive)', wholeNumber(0), 1)
-    .option('--large', 'allow more than 9 cells')
+    .option('--large', `allow more than ${RANK_LIMIT} cells`)
     .option('--out <file.json>', 'write the catalogue (whole or not at all)')
-    .option('--sheet <file.svg>', 'write a contact sheet of the top drawings')
+    .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${RANK_SHEET_LIMIT})`)
     .option(
       '--shard <i/k>',
       'rank only part i of k and write it with --out as a part file for `lather merge`; "slurm" takes i and k ' +
         'from a Slurm job array (SLURM_ARRAY_TASK_ID, SLURM_ARRAY_TASK_MIN, SLURM_ARRAY_TASK_COUNT)',
       rankShardOption,
     )
-    .action(async (opts) => {
+    .action(async (opts, command: Command) => {
       const areas = areasFrom(opts);
-      const filter: ArrangementFilter = {};
-      if (opts.threeConnected) filter.threeConnected = true;
-      if (opts.lens === false) filter.lens = false;
-      if (opts.maxSides !== undefined) filter.maxSides = opts.maxSides;
-      if (opts.minSides !== undefined) filter.minSides = opts.minSides;
+      const filter = filterFromOptions(opts);
+      const workers = workersFrom(opts);
+      if (opts.sheet && opts.top > RANK_SHEET_LIMIT && command.getOptionValueSource('top') === 'cli') {
+        throw new UsageError(
+          `--top ${opts.top} with --sheet is above ${RANK_SHEET_LIMIT} when expected at most ${RANK_SHEET_LIMIT} (the most drawings on a sheet).`,
+        );
+      }
       if (opts.shard !== undefined) {
+        for (const option of ['top', 'stableOnly'] as const) {
+          if (command.getOptionValueSource(option) === 'cli') {
+            const name = option === 'top' ? '--top' : '--stable-only';
+            throw new UsageError(`Option ${name} given with --shard when expected it with a whole ranking (a part file has no table).`);
+          }
+        }
         await rankPart(areas, opts.shard === 'slurm' ? slurmShard(process.env) : opts.shard, {
-          filter, budgetSeconds: opts.budget, workers: opts.workers ?? defaultWorkers(), seed: opts.seed, large: opts.large,
+          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large,
         }, opts);
         return;
       }
@@ -122,7 +152,7 @@ export function addRankCommand(program: Command): void {
       const catalogue = await withRunFiles([], declare, async ({ out, sheet }, files) => {
         let progress: Progress | null = null;
         const catalogue = await rankAreas(areas, {
-          filter, budgetSeconds: opts.budget, workers: opts.workers ?? defaultWorkers(), seed: opts.seed, large: opts.large,
+          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large,
           onProgress: (done, total) => {
             progress ??= startProgress('relaxing', total);
             progress.update(done);
@@ -131,7 +161,7 @@ export function addRankCommand(program: Command): void {
         (progress as Progress | null)?.stop();
         out?.write(writeCatalogue(catalogue));
         if (sheet !== null) {
-          const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, 12));
+          const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, RANK_SHEET_LIMIT));
           if (top.length > 0) sheet.write(entriesSheet(top, `areas ${areas.join(', ')}`));
           else {
             files.discard(sheet);

@@ -11,6 +11,12 @@
 import { CubicMap } from './cubic-map.ts';
 import { MapError } from '../errors.ts';
 
+/**
+ * The most cells a code holds: every verb that reads codes accepts 1 to this many cells, and nothing
+ * enumerates or ranks more (the codes it wrote could not be read back).
+ */
+export const CODE_CELL_LIMIT = 200;
+
 /** Width in base-36 digits of a label for a map of n cells. */
 function labelWidth(cells: number): number {
   const darts = 6 * (cells - 1);
@@ -46,8 +52,8 @@ export function decodeCode(text: string): { cells: number; twins: Int32Array } {
     throw new MapError(`Arrangement code "${text}" is malformed when expected <cells>:<walls>, e.g. "2:.54".`);
   }
   const cells = Number(match[1]);
-  if (!Number.isSafeInteger(cells) || cells < 1 || cells > 200) {
-    throw new MapError(`Arrangement code "${text}" has ${match[1]} cells when expected 1 to 200.`);
+  if (!Number.isSafeInteger(cells) || cells < 1 || cells > CODE_CELL_LIMIT) {
+    throw new MapError(`Arrangement code "${text}" has ${match[1]} cells when expected 1 to ${CODE_CELL_LIMIT}.`);
   }
   const body = match[2];
   if (cells === 1) {

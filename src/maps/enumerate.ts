@@ -16,6 +16,7 @@
 import { CubicMap, next, prev, thetaMap } from './cubic-map.ts';
 import { type CanonicalForm, canonicalForm, labellingOrder } from './canonical.ts';
 import { UsageError } from '../errors.ts';
+import { CODE_CELL_LIMIT } from './code.ts';
 
 /** A map produced by the enumerator, with its automorphism group. */
 export interface EnumeratedMap {
@@ -287,14 +288,21 @@ export function isThreeConnected(map: CubicMap): boolean {
   return true;
 }
 
+/**
+ * The most shards a run is cut into. Shards are dealt the subtrees below shardLevel() in turn, and there
+ * are far fewer than this for any cell count one can enumerate, so more shards would only be empty.
+ */
+export const SHARD_LIMIT = 1_000_000;
+
 /** Check a cell count and shard for the enumerator. @throws UsageError. */
 function checkArguments(cells: number, options: EnumerateOptions): { index: number; count: number } {
-  if (!Number.isSafeInteger(cells) || cells < 1) {
-    throw new UsageError(`Cell count ${cells} is not valid when expected a whole number of at least 1.`);
+  if (!Number.isSafeInteger(cells) || cells < 1 || cells > CODE_CELL_LIMIT) {
+    throw new UsageError(`Cell count ${cells} is not valid when expected a whole number from 1 to ${CODE_CELL_LIMIT} (the most a code holds).`);
   }
   const shard = options.shard ?? { index: 0, count: 1 };
-  if (!Number.isSafeInteger(shard.count) || shard.count < 1 || !Number.isSafeInteger(shard.index) || shard.index < 0 || shard.index >= shard.count) {
-    throw new UsageError(`Shard ${shard.index}/${shard.count} is not valid when expected i/k with 0 <= i < k.`);
+  if (!Number.isSafeInteger(shard.count) || shard.count < 1 || shard.count > SHARD_LIMIT ||
+    !Number.isSafeInteger(shard.index) || shard.index < 0 || shard.index >= shard.count) {
+    throw new UsageError(`Shard ${shard.index}/${shard.count} (zero-based) is not valid when expected i/k with 0 <= i < k <= ${SHARD_LIMIT}.`);
   }
   return shard;
 }
