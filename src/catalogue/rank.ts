@@ -72,7 +72,7 @@ export function checkAreas(areas: readonly number[], large = false): void {
     const { clusters } = estimateClusterCount(areas.length);
     throw new UsageError(
       `${areas.length} cells is above ${RANK_LIMIT} when expected at most ${RANK_LIMIT} without --large ` +
-        `(about ${countText(clusters)} arrangements, at least ${durationText(minimumSeconds(areas.length, false))} of relaxing on one core).`,
+        `(${countText(clusters)} arrangements, ${durationText(minimumSeconds(areas.length, false))} of work on one core).`,
     );
   }
 }

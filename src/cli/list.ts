@@ -5,10 +5,10 @@ import { enumerateClusters } from '../maps/cluster.ts';
 import { countArrangements, rootedMapCount } from '../maps/count.ts';
 import { type ClusterSummary, summarizeCluster } from '../maps/describe.ts';
 import { adjacencyGraph, GRAPHML_HEAD, GRAPHML_TAIL, graphmlGraph } from '../maps/adjacency.ts';
-import { estimateClusterCount } from '../maps/estimate.ts';
+import { countText, durationText, estimateClusterCount } from '../maps/estimate.ts';
 import { UsageError } from '../errors.ts';
 import { type ArrangementFilter, isFiltering, passesFilter } from '../catalogue/filter.ts';
-import { LIST_LIMIT, oneOf, parseCells, parseShard, wholeNumber } from './parse.ts';
+import { filterFromOptions, LIST_LIMIT, oneOf, parseCells, parseShard, wholeNumber } from './parse.ts';
 import { eventLoopTurns } from '../event-loop.ts';
 import { Output, withRunFiles } from './output.ts';
 import { startProgress } from './progress.ts';
@@ -19,17 +19,9 @@ export function checkSize(cells: number, large: boolean | undefined, limit: numb
     const { clusters, seconds } = estimateClusterCount(cells);
     throw new UsageError(
       `Cell count ${cells} is above ${limit} when expected at most ${limit} without --large ` +
-        `(about ${clusters.toPrecision(3)} arrangements, roughly ${formatDuration(seconds)} to ${verb}).`,
+        `(${countText(clusters)} arrangements, ${durationText(seconds)} to ${verb}).`,
     );
   }
-}
-
-/** A duration in words, e.g. "3 minutes". */
-export function formatDuration(seconds: number): string {
-  if (seconds < 90) return `${Math.max(1, Math.round(seconds))} seconds`;
-  if (seconds < 5400) return `${Math.round(seconds / 60)} minutes`;
-  if (seconds < 172800) return `${Math.round(seconds / 3600)} hours`;
-  return `${Math.round(seconds / 86400)} days`;
 }
 
 function tableRow(id: string, s: ClusterSummary): string {
@@ -81,11 +73,12 @@ export function addListCommand(program: Command): void {
     .option('--shard <i/k>', 'do part i of k of the work (union of all parts = the whole)', parseShard)
     .option('--large', `allow more than ${LIST_LIMIT} cells`)
     .option('--out <file>', 'write to a file (whole or not at all) instead of standard output')
-    .action(async (cells: number, opts) => {
+    .action(async (cells: number, opts, command: Command) => {
       checkSize(cells, opts.large, LIST_LIMIT, 'list');
-      const filter: ArrangementFilter = {
-        threeConnected: opts.threeConnected, lens: opts.lens, maxSides: opts.maxSides, minSides: opts.minSides,
-      };
+      if (opts.count && command.getOptionValueSource('format') === 'cli') {
+        throw new UsageError(`--format ${opts.format} given with --count when expected one of them (--count prints counts, not a list).`);
+      }
+      const filter = filterFromOptions(opts);
       await withRunFiles([], (files) => (opts.out === undefined ? null : files.add(opts.out, '--out')), async (file) => {
         const output = new Output(file);
         if (opts.count) writeCounts(output, cells, opts.shard, filter);

@@ -23,18 +23,22 @@ export const COUNT_IN_WORDS_ABOVE = 1e15;
 /** Durations above this many seconds (a hundred years) are said in words. */
 export const DURATION_IN_WORDS_ABOVE = 100 * 365.25 * 86400;
 
-/** An estimated count for a message: "1.33e+6", or "more than 10^15" beyond COUNT_IN_WORDS_ABOVE. */
+/** An estimated count for a message: "about 1.33e+6", or "more than 10^15" beyond COUNT_IN_WORDS_ABOVE. */
 export function countText(count: number): string {
   if (!(count <= COUNT_IN_WORDS_ABOVE)) return 'more than 10^15';
-  return count < 1000 ? String(Math.round(count)) : count.toPrecision(3);
+  return `about ${count < 1000 ? String(Math.round(count)) : count.toPrecision(3)}`;
 }
 
-/** An estimated duration in words: "40 seconds", "3 minutes", "5 hours", "12 days", "more than a hundred years". */
+/**
+ * An estimated duration for a message: "about 40 seconds", "about 3 minutes", "about 5 hours",
+ * "about 12 days", "about 7 years", or "more than a hundred years" beyond DURATION_IN_WORDS_ABOVE.
+ */
 export function durationText(seconds: number): string {
-  if (seconds < 90) return `${Math.max(1, Math.round(seconds))} seconds`;
-  if (seconds < 5400) return `${Math.round(seconds / 60)} minutes`;
-  if (seconds < 172800) return `${Math.round(seconds / 3600)} hours`;
-  if (seconds < 3 * 365.25 * 86400) return `${Math.round(seconds / 86400)} days`;
-  if (seconds <= DURATION_IN_WORDS_ABOVE) return `${Math.round(seconds / (365.25 * 86400))} years`;
-  return 'more than a hundred years';
+  const year = 365.25 * 86400;
+  if (!(seconds <= DURATION_IN_WORDS_ABOVE)) return 'more than a hundred years';
+  if (seconds < 90) return `about ${Math.max(1, Math.round(seconds))} seconds`;
+  if (seconds < 5400) return `about ${Math.round(seconds / 60)} minutes`;
+  if (seconds < 172800) return `about ${Math.round(seconds / 3600)} hours`;
+  if (seconds < 3 * year) return `about ${Math.round(seconds / 86400)} days`;
+  return `about ${Math.round(seconds / year)} years`;
 }

@@ -2,7 +2,8 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { rankAreas } from '../../src/catalogue/rank.ts';
+import { rankAreas, WORKER_LIMIT } from '../../src/catalogue/rank.ts';
+import { CODE_CELL_LIMIT } from '../../src/maps/code.ts';
 import { readCatalogue, writeCatalogue } from '../../src/catalogue/format.ts';
 import { clusterFromCode } from '../../src/maps/cluster.ts';
 import { summarizeCluster } from '../../src/maps/describe.ts';
@@ -106,7 +107,8 @@ describe('rankAreas', () => {
   });
 
   it('rankAreas beyond its budget searches, and says it is not exhaustive', async () => {
-    const c = await rankAreas([1, 2, 3, 4, 5], { budgetSeconds: 0.005 });
+    // 0.01 s pays for one relaxation per arrangement (about 22 by the estimate, 45 in fact) but not for the 3060 candidates
+    const c = await rankAreas([1, 2, 3, 4, 5], { budgetSeconds: 0.01 });
     expect(c.counts.exhaustive).toBe(false);
     expect(c.counts.skipped).toBeGreaterThan(0);
     expect(c.counts.tried + c.counts.skipped).toBe(c.counts.candidates);
@@ -125,7 +127,20 @@ describe('rankAreas', () => {
     for (const bad of [[], [1, 0], [1, -2], [1, NaN], [1, Infinity]]) {
       await expect(rankAreas(bad)).rejects.toThrow(UsageError);
     }
-    await expect(rankAreas(new Array(12).fill(1))).rejects.toThrow(/minutes/);
+    await expect(rankAreas(new Array(12).fill(1))).rejects.toThrow(/about [0-9]+ (minutes|hours|days)/);
+  });
+
+  it('rankAreas refuses a budget below the least work of the query, naming both, before any work', async () => {
+    // 10 equal cells: about 1.29e6 arrangements (estimate.ts), each relaxed at least once, is far beyond 1 s
+    await expect(rankAreas(new Array(10).fill(1), { large: true, budgetSeconds: 1 })).rejects.toThrow(UsageError);
+    await expect(rankAreas(new Array(10).fill(1), { large: true, budgetSeconds: 1 })).rejects.toThrow(/Budget 1 s .* at least [0-9]+ s/);
+  });
+
+  it('rankAreas refuses more cells than a code holds even when large, and workers beyond WORKER_LIMIT', async () => {
+    await expect(rankAreas(new Array(CODE_CELL_LIMIT + 1).fill(1), { large: true })).rejects.toThrow(/above 200/);
+    await expect(rankAreas([1, 1], { workers: WORKER_LIMIT + 1 })).rejects.toThrow(UsageError);
+    await expect(rankAreas([1, 1], { workers: 1.5 })).rejects.toThrow(UsageError);
+    await expect(rankAreas([1, 1, 1], { filter: { minSides: 5, maxSides: 4 } })).rejects.toThrow(/--min-sides 5 is above --max-sides 4/);
   });
 });
 
