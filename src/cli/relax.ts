@@ -88,6 +88,9 @@ export function addRelaxCommand(program: Command): void {
     .option('--pressures', 'show pressures in the drawing')
     .option('--junctions', 'mark junctions in the drawing')
     .action(async (what: string, opts) => {
+      for (const option of ['pressures', 'junctions'] as const) {
+        if (opts[option] && !opts.svg) throw new UsageError(`Option --${option} given without --svg when expected it only with --svg (it styles the drawing).`);
+      }
       const cluster = resolveArrangement(what);
       const areas = areasForCluster(cluster, opts.areas, what);
       const eq = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {

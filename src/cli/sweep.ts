@@ -1,15 +1,17 @@
 // cli stage: `lather sweep`, which arrangement wins as the areas change along a path, over a grid or over a triangle.
 
-import { type Command, InvalidArgumentError } from 'commander';
+import { type Command } from 'commander';
 import type { ArrangementFilter } from '../catalogue/filter.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreaFormulas } from '../sweep/formula.ts';
-import { type SweepDomain, checkFormulasOnDomain, parameterNames, parseShares, parseVary } from '../sweep/domain.ts';
+import {
+  type SweepDomain, SAMPLE_LIMIT, checkFormulasOnDomain, checkParametersUsed, checkSampleCount, parameterNames, parseShares, parseVary,
+} from '../sweep/domain.ts';
 import { sweepPath } from '../sweep/path.ts';
 import { sweepRegion } from '../sweep/region.ts';
 import { pathSweepJson, regionSweepJson } from '../sweep/format.ts';
 import { type OutputFile, type RunFiles, withRunFiles, writeOut } from './output.ts';
-import { wholeNumber } from './parse.ts';
+import { filterFromOptions, wholeNumber } from './parse.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { pathPlot, pathTable, regionPlot, regionTable } from './sweep-output.ts';
 import { cliStreams } from './streams.ts';
@@ -17,11 +19,8 @@ import { cliStreams } from './streams.ts';
 /** Default samples: along a path, per side of a grid, divisions of a triangle's side. */
 const DEFAULT_SAMPLES = { path: 50, grid: 12, triangle: 10 } as const;
 
-function samplesOption(text: string): number {
-  const v = wholeNumber(1)(text);
-  if (v > 10000) throw new InvalidArgumentError(`Samples "${text}" is above 10000 when expected at most 10000.`);
-  return v;
-}
+/** --samples: a whole number, at most SAMPLE_LIMIT (the total is checked with the domain). */
+const samplesOption = wholeNumber(1, SAMPLE_LIMIT, 'Samples');
 
 /** Read the domain from --vary / --shares, --samples and --log. @throws UsageError when they do not fit together. */
 function domainFrom(opts: { vary?: string; shares?: string; samples?: number; log?: boolean }): SweepDomain {
@@ -51,7 +50,7 @@ export function addSweepCommand(program: Command): void {
     .requiredOption('--areas <formulas>', 'cell areas as formulas of the parameters, comma separated, e.g. "1, 1, 1, t"')
     .option('--vary <ranges>', 'one parameter (a path) or two (a grid) with their ranges, e.g. t=0.1:10 or s=0.5:2,t=0.5:2')
     .option('--shares <names=total>', 'three shares with a fixed total, sampled over their triangle, e.g. a,b,c=3')
-    .option('--samples <n>', 'samples along the path (50), per side of the grid (12), or triangle divisions per side (10)', samplesOption)
+    .option('--samples <n>', `samples along the path (50), per side of the grid (12), or triangle divisions per side (10); at most ${SAMPLE_LIMIT} in total`, samplesOption)
     .option('--log', 'space the samples evenly in the logarithm of each parameter')
     .option('--competitors <k>', 'candidates ranked within the top k somewhere are plotted and have their boundaries located', wholeNumber(1), 4)
     .option('--three-connected', 'only arrangements whose map is 3-connected')
@@ -63,13 +62,11 @@ export function addSweepCommand(program: Command): void {
     .action(async (opts) => {
       // everything is checked before any relaxing
       const domain = domainFrom(opts);
+      checkSampleCount(domain);
       const formulas = parseAreaFormulas(opts.areas, parameterNames(domain));
+      checkParametersUsed(formulas, domain);
       checkFormulasOnDomain(formulas, domain);
-      const filter: ArrangementFilter = {};
-      if (opts.threeConnected) filter.threeConnected = true;
-      if (opts.lens === false) filter.lens = false;
-      if (opts.maxSides !== undefined) filter.maxSides = opts.maxSides;
-      if (opts.minSides !== undefined) filter.minSides = opts.minSides;
+      const filter = filterFromOptions(opts);
       const declare = (files: RunFiles) => ({
         json: typeof opts.json === 'string' ? files.add(opts.json, '--json') : null,
         plot: opts.plot === undefined ? null : files.add(opts.plot, '--plot'),

@@ -124,6 +124,62 @@ export function rangeSamples(range: ParameterRange, count: number, log: boolean)
   return out;
 }
 
+/**
+ * The most samples a sweep takes in total: along a path, over a grid (samples per side, squared) or over
+ * a triangle (divisions per side, squared). Every sample keeps a tracked state per candidate, so memory
+ * grows with the total, not with the count per side.
+ */
+export const SAMPLE_LIMIT = 10_000;
+
+/** The number of samples of a domain: path samples, grid samples squared, triangle divisions squared. */
+export function sampleCount(domain: SweepDomain): number {
+  if (domain.kind === 'path') return domain.samples;
+  if (domain.kind === 'grid') return domain.samples * domain.samples;
+  return domain.divisions * domain.divisions;
+}
+
+/**
+ * Check the total number of samples against SAMPLE_LIMIT, before any is made.
+ * @throws UsageError naming the total, how it comes about and the cap.
+ */
+export function checkSampleCount(domain: SweepDomain): void {
+  const total = sampleCount(domain);
+  if (total <= SAMPLE_LIMIT) return;
+  const how = domain.kind === 'path'
+    ? 'along the path'
+    : domain.kind === 'grid'
+      ? `(${domain.samples} x ${domain.samples} over the grid)`
+      : `(${domain.divisions} x ${domain.divisions} triangles)`;
+  const side = domain.kind === 'path' ? SAMPLE_LIMIT : Math.floor(Math.sqrt(SAMPLE_LIMIT));
+  throw new UsageError(
+    `Sweep has ${total} samples ${how} when expected at most ${SAMPLE_LIMIT} in total (--samples ${side} or fewer${domain.kind === 'path' ? '' : ' per side'}).`,
+  );
+}
+
+/**
+ * Check that the formulas use the parameters the domain varies: every parameter of a path or a grid,
+ * and at least two of a triangle's three shares (the third is then fixed by the total). A parameter no
+ * formula uses would sweep nothing.
+ * @throws UsageError naming the parameter and the formulas.
+ */
+export function checkParametersUsed(formulas: readonly AreaFormula[], domain: SweepDomain): void {
+  const names = parameterNames(domain);
+  const used = names.filter((name) => formulas.some((f) => f.uses.includes(name)));
+  const areas = formulas.map((f) => f.source).join(', ');
+  if (domain.kind === 'triangle') {
+    if (used.length < 2) {
+      throw new UsageError(
+        `Areas "${areas}" use ${used.length === 0 ? 'none' : `only ${used[0]}`} of the shares ${names.join(', ')} when expected at least two of them.`,
+      );
+    }
+    return;
+  }
+  const unused = names.find((name) => !used.includes(name));
+  if (unused !== undefined) {
+    throw new UsageError(`Parameter ${unused} is used by none of the areas "${areas}" when expected every parameter of --vary in a formula.`);
+  }
+}
+
 /** The sample points of a domain: values[k * names.length + j] is parameter j at sample k. */
 export interface SamplePoints {
   readonly names: readonly string[];
@@ -134,8 +190,10 @@ export interface SamplePoints {
 /**
  * Every sample point of a domain: a path in order; a grid row by row (second parameter outer), so
  * sample j * samples + i is at (x_i, y_j); a triangle in triangleSamples order.
+ * @throws UsageError beyond SAMPLE_LIMIT samples in total.
  */
 export function domainSamples(domain: SweepDomain): SamplePoints {
+  checkSampleCount(domain);
   const names = parameterNames(domain);
   if (domain.kind === 'path') {
     const xs = rangeSamples(domain.parameter, domain.samples, domain.log);
