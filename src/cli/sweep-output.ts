@@ -6,13 +6,10 @@ import type { TrackedState } from '../sweep/track.ts';
 import { renderPathPlot, renderRegionMap, type PathSeries, type WinnerBand, type PathEvent } from '../render/plot.ts';
 import type { RegionArrangement } from '../render/plot.ts';
 import type { ClusterDrawing } from '../render/types.ts';
+import { tableNumber, tableValue } from './table.ts';
 
-function num(x: number, digits = 9): string {
-  return Number.isFinite(x) ? x.toFixed(digits) : String(x);
-}
-
-function value(x: number): string {
-  return String(Number(x.toPrecision(10)));
+function num(x: number): string {
+  return Number.isFinite(x) ? tableNumber(x) : '-';
 }
 
 /** Lay rows out in columns; columns in `right` are right-aligned. */
@@ -47,13 +44,13 @@ export function pathTable(s: PathSweep): string[] {
   const rows: string[][] = [['from', 'to', 'samples', 'id', 'sides', 'areas by cell', 'perimeter from', 'perimeter to']];
   s.intervals.forEach((iv, i) => {
     if (iv.winner === null) {
-      rows.push([value(iv.from), value(iv.to), String(iv.samples), '-', '-', 'no certified equilibrium', '-', '-']);
+      rows.push([tableValue(iv.from), tableValue(iv.to), String(iv.samples), '-', '-', 'no certified equilibrium', '-', '-']);
       return;
     }
     const c = C[iv.winner];
     const first = i === 0 ? s.ranked[0][0]?.perimeter : s.transitions[i - 1].perimeters[1];
     const last = i === s.intervals.length - 1 ? s.ranked[s.xs.length - 1][0]?.perimeter : s.transitions[i].perimeters[0];
-    rows.push([value(iv.from), value(iv.to), String(iv.samples), c.id, c.sides.join(''), cellFormulasText(c), num(first ?? NaN), num(last ?? NaN)]);
+    rows.push([tableValue(iv.from), tableValue(iv.to), String(iv.samples), c.id, c.sides.join(''), cellFormulasText(c), num(first ?? NaN), num(last ?? NaN)]);
   });
   lines.push(...columns(rows, new Set([0, 1, 2, 6, 7])));
   lines.push('');
@@ -64,7 +61,7 @@ export function pathTable(s: PathSweep): string[] {
     for (const x of s.transitions) {
       const from = x.from >= 0 ? who(C[x.from]) : '-';
       const to = x.to >= 0 ? who(C[x.to]) : '-';
-      t.push([num(x.at, 9), (0.5 * (x.bracket[1] - x.bracket[0])).toExponential(1), from, to, x.kind, num(x.perimeters[0]), num(x.perimeters[1])]);
+      t.push([num(x.at), (0.5 * (x.bracket[1] - x.bracket[0])).toExponential(1), from, to, x.kind, num(x.perimeters[0]), num(x.perimeters[1])]);
     }
     lines.push(...columns(t, new Set([0, 1, 5, 6])));
   }
@@ -79,7 +76,7 @@ export function pathTable(s: PathSweep): string[] {
         ? `wall ${x.collapsingWall} collapses; T1 to ${x.becomes === null ? 'no admissible arrangement' : x.becomes.id}`
         : x.status;
       if (x.zeroModes > 0) failure += ` (${x.zeroModes} zero mode${x.zeroModes > 1 ? 's' : ''}: depends on where it slid)`;
-      b.push([num(x.at, 9), c.id, c.sides.join(''), cellFormulasText(c), x.exists, num(x.perimeter), failure]);
+      b.push([num(x.at), c.id, c.sides.join(''), cellFormulasText(c), x.exists, num(x.perimeter), failure]);
     }
     lines.push(...columns(b, new Set([0, 5])));
   }
@@ -104,7 +101,7 @@ export function regionTable(s: RegionSweep): string[] {
     const c = g.winner === null ? null : C[g.winner];
     rows.push([
       String(i + 1), String(g.members.length), c?.id ?? '-', c?.sides.join('') ?? '-', c === null ? 'no certified equilibrium' : cellFormulasText(c),
-      ...g.extent.map(([lo, hi]) => `${value(lo)}..${value(hi)}`),
+      ...g.extent.map(([lo, hi]) => `${tableValue(lo)}..${tableValue(hi)}`),
     ]);
   });
   lines.push(...columns(rows, new Set([0, 1])));

@@ -1,9 +1,22 @@
-// cli stage: the readable table of a catalogue (rank, show).
+// cli stage: the readable table of a catalogue (rank, show), and how every printed table writes numbers.
 
 import type { Catalogue, CatalogueEntry } from '../catalogue/types.ts';
+import { formatValue } from '../render/format.ts';
 
-function fmt(x: number, digits: number): string {
-  return x.toFixed(digits);
+/** Significant digits of perimeters and parameter values in printed tables (catalogue files keep 12). */
+export const TABLE_DIGITS = 10;
+
+/**
+ * A number in a table column: TABLE_DIGITS significant digits, trailing zeros kept so a column lines
+ * up, an exponent for magnitudes from 1e6 or below 1e-4 (render/format.ts formatValue).
+ */
+export function tableNumber(x: number): string {
+  return formatValue(x, TABLE_DIGITS, true);
+}
+
+/** A parameter value in a table: as tableNumber, trailing zeros removed ("0.5", "2"). */
+export function tableValue(x: number): string {
+  return formatValue(x, TABLE_DIGITS);
 }
 
 /** Which area sits in which cell, e.g. "1:2.5 2:1 3:1". */
@@ -42,7 +55,7 @@ export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): 
   const ranked = c.entries.filter((e) => e.rank !== null && (!stableOnly || e.index === 0));
   const head = ['rank', 'perimeter', 'gap %', 'id', 'sides', 'areas by cell', 'index', 'status'];
   const rows: string[][] = ranked.slice(0, top).map((e) => [
-    String(e.rank), fmt(e.perimeter!, 9), fmt(e.gapPercent!, 3), e.id, e.sides.join(''), cellAreasText(e), stabilityText(e), e.status,
+    String(e.rank), tableNumber(e.perimeter!), e.gapPercent!.toFixed(3), e.id, e.sides.join(''), cellAreasText(e), stabilityText(e), e.status,
   ]);
   const failures = c.entries.filter((e) => e.rank === null);
   const failRows: string[][] = stableOnly ? [] : failures.slice(0, top).map((e) => ['-', '-', '-', e.id, e.sides.join(''), cellAreasText(e), '-', failureText(e)]);

@@ -25,20 +25,22 @@ export function checkDigits(digits: number): number {
 }
 
 /**
- * A value for a label, to `significant` significant digits with trailing zeros removed:
- * 1 -> "1", 0.5 -> "0.5", 2.71828 -> "2.718"; very large or small magnitudes use an exponent
- * ("1.5e-5"). Non-finite values are written as "n/a".
+ * A value for a label or a table, to `significant` significant digits with trailing zeros removed
+ * (kept when `trailingZeros`, so a column of values lines up): 1 -> "1", 0.5 -> "0.5",
+ * 2.71828 -> "2.718"; very large or small magnitudes use an exponent ("1.5e-5"), never digits the
+ * value does not have. Non-finite values are written as "n/a".
  */
-export function formatValue(x: number, significant = 4): string {
+export function formatValue(x: number, significant = 4, trailingZeros = false): string {
   if (!Number.isFinite(x)) return 'n/a';
   if (x === 0) return '0';
+  const strip = trailingZeros ? (text: string) => text : stripZeros;
   const magnitude = Math.abs(x);
   if (magnitude >= 1e6 || magnitude < 1e-4) {
     const [mantissa, exponent] = x.toExponential(significant - 1).split('e');
-    return `${stripZeros(mantissa)}e${Number(exponent)}`;
+    return `${strip(mantissa)}e${Number(exponent)}`;
   }
   const decimals = Math.max(0, significant - 1 - Math.floor(Math.log10(magnitude)));
-  return stripZeros(x.toFixed(decimals));
+  return strip(x.toFixed(decimals));
 }
 
 /** Remove trailing zeros after a decimal point ("1.500" -> "1.5", "2.000" -> "2"). */
