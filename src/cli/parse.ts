@@ -32,7 +32,10 @@ export function wholeNumber(min: number, max = Number.MAX_SAFE_INTEGER, what = '
     if (!WHOLE.test(t) || Number(t) < min) {
       throw new InvalidArgumentError(`${what} "${text}" is not valid when expected a whole number of at least ${min}.`);
     }
-    if (Number(t) > max) throw new InvalidArgumentError(`${what} ${t} is above ${max} when expected at most ${max}.`);
+    if (Number(t) > max) {
+      const most = max === Number.MAX_SAFE_INTEGER ? '2^53 - 1' : String(max);
+      throw new InvalidArgumentError(`${what} ${t} is above ${most} when expected at most ${most}.`);
+    }
     return Number(t);
   };
 }

@@ -26,7 +26,7 @@ export function addShowCommand(program: Command): void {
   program
     .command('show')
     .argument('<file>', 'catalogue file (.json)')
-    .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1), 25)
+    .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1, undefined, 'Top'), 25)
     .option('--stable-only', 'show only equilibria of index 0')
     .action((file: string, opts) => {
       const catalogue = loadCatalogue(file);
