@@ -136,6 +136,13 @@ describe('rankAreas', () => {
     await expect(rankAreas(new Array(10).fill(1), { large: true, budgetSeconds: 1 })).rejects.toThrow(/Budget 1 s .* at least [0-9]+ s/);
   });
 
+  it('rankAreas refuses the same budget with one worker or two: the budget is work on one core, the query decides', async () => {
+    const messages = await Promise.all([1, 2].map((workers) =>
+      rankAreas(new Array(9).fill(1), { budgetSeconds: 60, workers }).then(() => 'ranked', (error: Error) => error.message)));
+    expect(messages[0]).toMatch(/^Budget 60 s is below/);
+    expect(messages[1]).toBe(messages[0]);
+  });
+
   it('rankAreas refuses more cells than a code holds even when large, and workers beyond WORKER_LIMIT', async () => {
     await expect(rankAreas(new Array(CODE_CELL_LIMIT + 1).fill(1), { large: true })).rejects.toThrow(/above 200/);
     await expect(rankAreas([1, 1], { workers: WORKER_LIMIT + 1 })).rejects.toThrow(UsageError);
