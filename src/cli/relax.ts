@@ -13,6 +13,7 @@ import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
 import { withRunFiles, writeOut } from './output.ts';
 import { equilibriumDrawing } from './drawings.ts';
+import { tableNumber } from './table.ts';
 import { cliStreams } from './streams.ts';
 
 /** The areas for a cluster: the given list (checked against the cell count) or equal areas of 1. */
@@ -42,7 +43,7 @@ export function relaxSummary(label: string, cluster: Cluster, areas: Float64Arra
   if (eq.status === 'ok') {
     const stable = eq.index === 0 ? 'stable in its arrangement' : `${eq.index} unstable direction${eq.index === 1 ? '' : 's'}`;
     lines.push(`status ok: certified equilibrium, index ${eq.index} (${stable}), ${eq.zeroModes} zero mode${eq.zeroModes === 1 ? '' : 's'}, ${eq.iterations} Newton iterations`);
-    lines.push(`perimeter ${eq.perimeter.toPrecision(12)}`);
+    lines.push(`perimeter ${tableNumber(eq.perimeter, 12)}`);
   } else {
     let why: string = eq.status;
     if (eq.status === 'wall-collapse') {
@@ -55,13 +56,13 @@ export function relaxSummary(label: string, cluster: Cluster, areas: Float64Arra
   lines.push('');
   lines.push('cell  target area  achieved area  pressure  sides');
   for (let i = 0; i < cluster.cells; i++) {
-    lines.push(`${String(i + 1).padStart(4)}  ${areas[i].toPrecision(6).padStart(11)}  ${eq.areas[i].toPrecision(10).padStart(13)}  ${eq.pressures[i].toPrecision(6).padStart(8)}  ${s.sides[i]}`);
+    lines.push(`${String(i + 1).padStart(4)}  ${tableNumber(areas[i], 6).padStart(11)}  ${tableNumber(eq.areas[i]).padStart(13)}  ${tableNumber(eq.pressures[i], 6).padStart(8)}  ${s.sides[i]}`);
   }
   const c = eq.certificate;
   lines.push('');
   lines.push(
     `certificate: area ${e(c.areaResidual)}, tangent sums ${e(c.tangentResidual)}, Laplace-Young ${e(c.curvatureResidual)}, ` +
-      `shortest wall ${c.minWallLength.toPrecision(4)}, smallest cell ${c.minCellArea.toPrecision(4)}, crossings ${c.crossings}, misordered junctions ${c.misorderedJunctions}`,
+      `shortest wall ${tableNumber(c.minWallLength, 4)}, smallest cell ${tableNumber(c.minCellArea, 4)}, crossings ${c.crossings}, misordered junctions ${c.misorderedJunctions}`,
   );
   return lines;
 }

@@ -7,11 +7,11 @@ import { formatValue } from '../render/format.ts';
 export const TABLE_DIGITS = 10;
 
 /**
- * A number in a table column: TABLE_DIGITS significant digits, trailing zeros kept so a column lines
- * up, an exponent for magnitudes from 1e6 or below 1e-4 (render/format.ts formatValue).
+ * A number in a table column: `digits` significant digits, trailing zeros kept so a column lines up,
+ * an exponent for magnitudes from 1e6 or below 1e-4 (render/format.ts formatValue).
  */
-export function tableNumber(x: number): string {
-  return formatValue(x, TABLE_DIGITS, true);
+export function tableNumber(x: number, digits = TABLE_DIGITS): string {
+  return formatValue(x, digits, true);
 }
 
 /** A parameter value in a table: as tableNumber, trailing zeros removed ("0.5", "2"). */
