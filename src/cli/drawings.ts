@@ -6,6 +6,20 @@ import type { CatalogueEntry } from '../catalogue/types.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import type { ClusterDrawing } from '../render/types.ts';
 import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
+import { UsageError } from '../errors.ts';
+
+/** Most drawings on the contact sheet of `rank --sheet` and `merge --sheet` (the top ranks, fewer with a smaller --top). */
+export const SHEET_LIMIT = 12;
+
+/**
+ * Refuse --top above SHEET_LIMIT given with --sheet, which would draw fewer than asked.
+ * @throws UsageError naming --top and the limit.
+ */
+export function checkSheetTop(top: number, topGiven: boolean, sheet: string | undefined): void {
+  if (sheet !== undefined && topGiven && top > SHEET_LIMIT) {
+    throw new UsageError(`--top ${top} with --sheet is above ${SHEET_LIMIT} when expected at most ${SHEET_LIMIT} (the most drawings on a sheet).`);
+  }
+}
 
 /** The drawing of a certified catalogue entry (null for a failure, which has no geometry). */
 export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {

@@ -7,7 +7,7 @@ import { readCatalogue, writeCatalogue } from '../catalogue/format.ts';
 import { mergeParts, readPart } from '../catalogue/shard.ts';
 import { UsageError } from '../errors.ts';
 import { packageInfo } from '../version.ts';
-import { entriesSheet } from './drawings.ts';
+import { checkSheetTop, entriesSheet, SHEET_LIMIT } from './drawings.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { wholeNumber } from './parse.ts';
 import { catalogueTable } from './table.ts';
@@ -18,9 +18,10 @@ export function addMergeCommand(program: Command): void {
     .command('merge')
     .argument('<parts...>', 'the part files written by rank --shard i/k, every shard once, in any order')
     .requiredOption('--out <file.json>', 'write the merged catalogue (whole or not at all)')
-    .option('--sheet <file.svg>', 'write a contact sheet of the top drawings')
-    .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1), 25)
-    .action(async (paths: string[], opts) => {
+    .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${SHEET_LIMIT})`)
+    .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1, undefined, 'Top'), 25)
+    .action(async (paths: string[], opts, command: Command) => {
+      checkSheetTop(opts.top, command.getOptionValueSource('top') === 'cli', opts.sheet);
       const declare = (files: RunFiles) => ({
         out: files.add(opts.out, '--out'),
         sheet: opts.sheet === undefined ? null : files.add(opts.sheet, '--sheet'),
@@ -39,7 +40,7 @@ export function addMergeCommand(program: Command): void {
         // the merged catalogue must pass every check a reader makes
         const catalogue = readCatalogue(text, opts.out);
         out.write(text);
-        const top = catalogue.entries.filter((e) => e.rank !== null).slice(0, Math.min(opts.top, 12));
+        const top = catalogue.entries.filter((e) => e.rank !== null).slice(0, Math.min(opts.top, SHEET_LIMIT));
         if (sheet !== null) sheet.write(entriesSheet(top, `areas ${catalogue.query.areas.join(', ')}`));
         return catalogue;
       });

@@ -11,7 +11,7 @@ import { areasFrom, parseAreas } from './areas.ts';
 import { filterFromOptions, parseSeconds, parseShard, wholeNumber } from './parse.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { catalogueTable } from './table.ts';
-import { entriesSheet } from './drawings.ts';
+import { checkSheetTop, entriesSheet, SHEET_LIMIT } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { cliStreams } from './streams.ts';
 
@@ -20,9 +20,6 @@ interface Shard {
   index: number;
   count: number;
 }
-
-/** Most drawings on the contact sheet of `rank --sheet` (the top ranks, fewer with a smaller --top). */
-export const RANK_SHEET_LIMIT = 12;
 
 function workersCapText(): string {
   const cores = availableParallelism();
@@ -117,7 +114,7 @@ export function addRankCommand(program: Command): void {
     .option('--seed <n>', 'seed of the search starts (when not exhaustive)', wholeNumber(0, undefined, 'Seed'), 1)
     .option('--large', `allow more than ${RANK_LIMIT} cells`)
     .option('--out <file.json>', 'write the catalogue (whole or not at all)')
-    .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${RANK_SHEET_LIMIT})`)
+    .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${SHEET_LIMIT})`)
     .option(
       '--shard <i/k>',
       'rank only part i of k and write it with --out as a part file for `lather merge`; "slurm" takes i and k ' +
@@ -128,11 +125,7 @@ export function addRankCommand(program: Command): void {
       const areas = areasFrom(opts);
       const filter = filterFromOptions(opts);
       const workers = workersFrom(opts);
-      if (opts.sheet && opts.top > RANK_SHEET_LIMIT && command.getOptionValueSource('top') === 'cli') {
-        throw new UsageError(
-          `--top ${opts.top} with --sheet is above ${RANK_SHEET_LIMIT} when expected at most ${RANK_SHEET_LIMIT} (the most drawings on a sheet).`,
-        );
-      }
+      checkSheetTop(opts.top, command.getOptionValueSource('top') === 'cli', opts.sheet);
       if (opts.shard !== undefined) {
         for (const option of ['top', 'stableOnly'] as const) {
           if (command.getOptionValueSource(option) === 'cli') {
@@ -161,7 +154,7 @@ export function addRankCommand(program: Command): void {
         (progress as Progress | null)?.stop();
         out?.write(writeCatalogue(catalogue));
         if (sheet !== null) {
-          const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, RANK_SHEET_LIMIT));
+          const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, SHEET_LIMIT));
           if (top.length > 0) sheet.write(entriesSheet(top, `areas ${areas.join(', ')}`));
           else {
             files.discard(sheet);

@@ -124,6 +124,13 @@ describe('messages', () => {
   it('rank --top 20 --sheet is refused: a sheet holds 12 drawings (it was silently capped)', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'lather-'));
     refused(await lather(['rank', '--areas', '1,1,1', '--top', '20', '--sheet', join(dir, 's.svg')]), '--top 20', 'at most 12');
+    refused(await lather(['merge', join(dir, 'p.json'), '--out', join(dir, 'c.json'), '--top', '20', '--sheet', join(dir, 's.svg')]), '--top 20', 'at most 12');
+  });
+
+  it('rank --shard refuses --top and --stable-only: a part file has no table', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'lather-'));
+    refused(await lather(['rank', '--areas', '1,1,1', '--shard', '1/2', '--out', join(dir, 'p.json'), '--top', '3']), '--top', '--shard');
+    refused(await lather(['rank', '--areas', '1,1,1', '--shard', '1/2', '--out', join(dir, 'p.json'), '--stable-only']), '--stable-only', '--shard');
   });
 
   it('perimeters of tiny and huge clusters are printed with significant digits, scaled exactly', async () => {
