@@ -5,10 +5,10 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
-import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue } from './types.ts';
+import { checkCatalogueConsistency } from './consistency.ts';
+import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, WRITE_DIGITS } from './types.ts';
 
-/** Significant digits of every float written; the solver itself never rounds. */
-export const WRITE_DIGITS = 12;
+export { WRITE_DIGITS } from './types.ts';
 
 function round(x: number): number {
   if (!Number.isFinite(x)) return x; // the schema refuses it: a non-finite number is a bug upstream
@@ -63,15 +63,23 @@ function catalogueValidator(): ValidateFunction {
   return validator;
 }
 
+/** What a JSON value other than null is, in words: "a string", "an array", ... */
+function kindOf(value: unknown): string {
+  if (Array.isArray(value)) return 'an array';
+  return typeof value === 'object' ? 'an object' : `a ${typeof value}`;
+}
+
 /**
- * Read a catalogue from JSON text.
+ * Read a catalogue from JSON text (a leading UTF-8 byte-order mark is skipped), then check it: format
+ * name, version, schema, and the consistency of its counts, ranks and answers (consistency.ts).
  * @throws CatalogueFormatError when the text is not JSON, not a lather catalogue, of another version,
- *   or fails the schema.
+ *   fails the schema or contradicts itself; the message names `source` and, for an entry, which one.
  */
 export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
   let data: unknown;
   try {
-    data = JSON.parse(text);
+    // Does the text start with a byte-order mark (some editors write one)? It is not part of the JSON.
+    data = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
   } catch {
     throw new CatalogueFormatError(`${source} is not JSON when expected a ${CATALOGUE_FORMAT} file.`);
   }
@@ -79,8 +87,14 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
   if (head === null || typeof head !== 'object' || head.format !== CATALOGUE_FORMAT) {
     throw new CatalogueFormatError(`${source} has format ${JSON.stringify(head?.format ?? null)} when expected "${CATALOGUE_FORMAT}".`);
   }
+  if (typeof head.version !== 'number') {
+    const given = head.version === undefined || head.version === null
+      ? `is ${head.version === null ? 'null' : 'missing'}`
+      : `${JSON.stringify(head.version)} is ${kindOf(head.version)}`;
+    throw new CatalogueFormatError(`${source}: version ${given} when expected the number ${CATALOGUE_VERSION}.`);
+  }
   if (head.version !== CATALOGUE_VERSION) {
-    throw new CatalogueFormatError(`Got v${String(head.version)} catalogue when expected v${CATALOGUE_VERSION}.`);
+    throw new CatalogueFormatError(`Got v${head.version} catalogue in ${source} when expected v${CATALOGUE_VERSION}.`);
   }
   const validate = catalogueValidator();
   if (!validate(data)) {
@@ -88,5 +102,7 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
     const where = err?.instancePath || '/';
     throw new CatalogueFormatError(`${source} fails its schema at ${where}: ${err?.message ?? 'invalid'} when expected a valid v${CATALOGUE_VERSION} catalogue.`);
   }
-  return data as unknown as Catalogue;
+  const catalogue = data as unknown as Catalogue;
+  checkCatalogueConsistency(catalogue, source);
+  return catalogue;
 }

@@ -7,6 +7,8 @@ import type { Certificate } from '../solver/certificate.ts';
 export const CATALOGUE_FORMAT = 'lather-catalogue';
 /** Version of the catalogue format this release reads and writes. */
 export const CATALOGUE_VERSION = 1;
+/** Significant digits of every float written; the solver itself never rounds. */
+export const WRITE_DIGITS = 12;
 
 /** What was asked. */
 export interface CatalogueQuery {
