@@ -16,7 +16,7 @@ import { CatalogueFormatError, MapError } from '../errors.ts';
 import { type AreaClasses, areaClasses, isOrbitMinimal, labelledAssignmentCount, orbitCount, userIndices } from './assign.ts';
 import { isFiltering, passesFilter } from './filter.ts';
 import { ORDER_DIGITS } from './rank.ts';
-import { type Catalogue, type CatalogueEntry, WRITE_DIGITS } from './types.ts';
+import { type Catalogue, type CatalogueEntry, WRITE_DIGITS, roundWritten } from './types.ts';
 
 /**
  * Largest relative change of a number written to WRITE_DIGITS significant digits: half a unit in the
@@ -253,8 +253,8 @@ function checkEntry(
     const a = assignment[i];
     if (!(a < n) || used[a]++ > 0) refuse(`assignment is [${assignment}]`, `each of 0..${n - 1} once (an index into the query's areas per cell)`);
     s[i] = classes.classOf[a];
-    if (entry.cellAreas[i] !== query.areas[a]) {
-      refuse(`cellAreas are [${entry.cellAreas}]`, `[${assignment.map((j) => query.areas[j])}] (the query's areas under the assignment)`);
+    if (entry.cellAreas[i] !== roundWritten(query.areas[a])) {
+      refuse(`cellAreas are [${entry.cellAreas}]`, `[${assignment.map((j) => roundWritten(query.areas[j]))}] (the query's areas under the assignment)`);
     }
   }
   // equal areas are given out in the query's order (userIndices), the classes up to symmetry
@@ -281,13 +281,16 @@ function checkEntry(
     return;
   }
   for (const field of answers) if (entry[field] === null) refuse(`${field} is null`, 'a value for a certified ("ok") entry');
-  checkAnswer(entry, cluster);
+  checkAnswer(entry, cluster, Float64Array.from(assignment, (i) => query.areas[i]));
 }
 
-/** An 'ok' entry: finite numbers of the right lengths, a perimeter and a certificate its geometry bears out. */
-function checkAnswer(entry: CatalogueEntry, cluster: Cluster): void {
+/**
+ * An 'ok' entry: finite numbers of the right lengths, a perimeter and a certificate its geometry bears
+ * out at the query's own areas (areas[i] for cell i + 1).
+ */
+function checkAnswer(entry: CatalogueEntry, cluster: Cluster, areas: Float64Array): void {
   const { map } = cluster;
-  const n = entry.cellAreas.length;
+  const n = areas.length;
   const { coords, bulges } = entry.geometry!;
   const pressures = entry.pressures!;
   const lengths: [string, number[], number][] = [
@@ -313,7 +316,6 @@ function checkAnswer(entry: CatalogueEntry, cluster: Cluster): void {
     if (hi - lo > perimeter) refuse(`geometry spans ${hi - lo} in ${axis === 0 ? 'x' : 'y'}`, `at most the perimeter, ${perimeter}`);
   }
 
-  const areas = Float64Array.from(entry.cellAreas);
   const geometry = { coords: Float64Array.from(coords), bulges: Float64Array.from(bulges), pressures: Float64Array.from(pressures) };
   const slack = roundingSlack(cluster, areas, geometry);
   const worst = Math.max(slack.area, slack.tangent, slack.curvature, slack.perimeter);

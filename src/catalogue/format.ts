@@ -6,19 +6,12 @@ import { createRequire } from 'node:module';
 import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
 import { checkCatalogueConsistency } from './consistency.ts';
-import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, WRITE_DIGITS } from './types.ts';
+import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, roundWritten } from './types.ts';
 
 export { WRITE_DIGITS } from './types.ts';
 
-function round(x: number): number {
-  if (!Number.isFinite(x)) return x; // the schema refuses it: a non-finite number is a bug upstream
-  if (Number.isInteger(x)) return x;
-  const r = Number(x.toPrecision(WRITE_DIGITS));
-  return Object.is(r, -0) ? 0 : r;
-}
-
 function rounded(value: unknown): unknown {
-  if (typeof value === 'number') return round(value);
+  if (typeof value === 'number') return roundWritten(value);
   if (Array.isArray(value)) return value.map(rounded);
   if (value !== null && typeof value === 'object') {
     const out: Record<string, unknown> = {};
@@ -30,10 +23,13 @@ function rounded(value: unknown): unknown {
 
 /**
  * The catalogue as JSON text: the head pretty-printed, one entry per line, floats to 12 significant
- * digits, keys in a fixed order. Same catalogue, same bytes.
+ * digits except in the query, keys in a fixed order. Same catalogue, same bytes.
  */
 export function writeCatalogue(catalogue: Catalogue): string {
   const { entries, ...head } = rounded(catalogue) as Catalogue;
+  // the query as asked, to the last digit: areas that differ only beyond 12 digits are still different
+  // areas to the ranking (other classes, other candidates), and the reader recounts from them
+  head.query = catalogue.query;
   const lines = [
     '{',
     `  "format": ${JSON.stringify(head.format)},`,

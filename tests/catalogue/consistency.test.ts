@@ -96,6 +96,12 @@ describe('readCatalogue: consistency after the schema', () => {
       const text = writeCatalogue(await rankAreas(areas));
       expect(() => readCatalogue(text, `areas ${areas}`)).not.toThrow();
     }
+    // areas equal to 12 digits but not equal: other classes, other candidates; the query keeps every digit
+    const close = await rankAreas([1, 1, 1.0000000000001]);
+    expect(close.counts.candidates).toBe(5); // 3 arrangements of 3 cells: 3:...b7a (K4) 1, chain 2, lens 2
+    const written = writeCatalogue(close);
+    expect(JSON.parse(written).query.areas).toEqual([1, 1, 1.0000000000001]);
+    expect(() => readCatalogue(written)).not.toThrow();
     // a filtered ranking, and a search (not exhaustive: at most one candidate per arrangement)
     const filtered = await rankAreas([1, 1, 1, 1, 1], { filter: { lens: false, maxSides: 5 } });
     expect(filtered.counts.arrangements).toBeLessThan(filtered.counts.enumerated);
