@@ -51,6 +51,10 @@ const corrupt: [string, string, RegExp][] = [
   ['a pressure edited', edited((c) => (entry(c, 1).pressures![0] += 0.01)), /entry 2 \(rank 2, code "4:\.\.4\.\.\.hdg"\): re-checked curvatureResidual is/],
   ['a cell area that is not the query\'s', edited((c) => (entry(c, 0).cellAreas[0] = 2)), /entry 1 .*: cellAreas are \[2,1,1,1\] when expected \[1,1,1,1\]/],
   ['ranks out of order', edited((c) => ([c.entries[0], c.entries[1]] = [c.entries[1], c.entries[0]])), /entry 1 \(rank 2, code "4:\.\.4\.\.\.hdg"\): rank is 2 when expected 1/],
+  ['ranks renumbered out of perimeter order', edited((c) => {
+    [c.entries[0], c.entries[1]] = [c.entries[1], c.entries[0]];
+    [entry(c, 0).rank, entry(c, 1).rank, entry(c, 0).gapPercent] = [1, 2, 0];
+  }), /entry 2 \(rank 2, code "4:\.\.\.b\.e\.hg"\): perimeter is 11\.1878021982, below rank 1's 11\.5373806748 when expected ranks ordered by perimeter/],
   ['a failure counted under another kind', edited((c) => (c.counts.failures = { 'walls-cross': 5 })), /counts: failures is \{"walls-cross":5\} when expected \{"wall-collapse":5\}/],
   ['an entry left out', edited((c) => c.entries.pop()), /counts: tried is 10 when expected 9/],
   ['a stored certificate that does not pass', edited((c) => (entry(c, 0).certificate.crossings = 1)), /entry 1 .*: certificate .* does not pass when expected/],
