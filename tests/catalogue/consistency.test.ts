@@ -8,10 +8,12 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { readCatalogue, writeCatalogue } from '../../src/catalogue/format.ts';
-import { WRITE_ROUNDING } from '../../src/catalogue/consistency.ts';
+import { WRITE_ROUNDING, roundingSlack } from '../../src/catalogue/consistency.ts';
 import { rankAreas } from '../../src/catalogue/rank.ts';
-import type { Catalogue, CatalogueEntry } from '../../src/catalogue/types.ts';
+import { type Catalogue, type CatalogueEntry, roundWritten } from '../../src/catalogue/types.ts';
 import { CatalogueFormatError } from '../../src/errors.ts';
+import { clusterFromCode } from '../../src/maps/cluster.ts';
+import { checkEquilibrium } from '../../src/solver/certificate.ts';
 import { lather } from '../cli/helpers.ts';
 
 const CATALOGUES = new URL('../../catalogues/', import.meta.url);
@@ -113,6 +115,32 @@ describe('readCatalogue: consistency after the schema', () => {
     const search = await rankAreas([1, 2, 3, 4, 5], { budgetSeconds: 1e-9 });
     expect(search.counts.exhaustive).toBe(false);
     expect(() => readCatalogue(writeCatalogue(search))).not.toThrow();
+  }, 60_000);
+});
+
+describe('roundingSlack', () => {
+  it('roundingSlack bounds what writing to 12 digits does to each certificate entry, measured on the unrounded answers', async () => {
+    // first-order propagation of the rounding error (common practice, no source), checked against the
+    // certificates of the relaxer's own answers before and after rounding every number to 12 digits
+    for (const areas of [[1, 1.5, 2, 2.5], [0.01, 1, 1, 100]]) {
+      const catalogue = await rankAreas(areas);
+      let checked = 0;
+      for (const e of catalogue.entries) {
+        if (e.status !== 'ok') continue;
+        const cluster = clusterFromCode(e.code);
+        const cellAreas = Float64Array.from(e.assignment, (i) => areas[i]);
+        const exact = { coords: Float64Array.from(e.geometry!.coords), bulges: Float64Array.from(e.geometry!.bulges), pressures: Float64Array.from(e.pressures!) };
+        const written = { coords: exact.coords.map(roundWritten), bulges: exact.bulges.map(roundWritten), pressures: exact.pressures.map(roundWritten) };
+        const before = checkEquilibrium(cluster.map, cellAreas, exact);
+        const after = checkEquilibrium(cluster.map, cellAreas, written);
+        const slack = roundingSlack(cluster, cellAreas, written);
+        expect(Math.abs(after.areaResidual - before.areaResidual), e.code).toBeLessThanOrEqual(slack.area);
+        expect(Math.abs(after.tangentResidual - before.tangentResidual), e.code).toBeLessThanOrEqual(slack.tangent);
+        expect(Math.abs(after.curvatureResidual - before.curvatureResidual), e.code).toBeLessThanOrEqual(slack.curvature);
+        checked++;
+      }
+      expect(checked).toBeGreaterThan(10);
+    }
   }, 60_000);
 });
 
