@@ -249,6 +249,9 @@ function checkEntry(
 
   // the assignment: each of the query's areas once, equal areas in the user's order, up to symmetry
   const { assignment } = entry;
+  for (const [name, values] of [['assignment', assignment], ['cellAreas', entry.cellAreas]] as const) {
+    if (values.length !== n) refuse(`${name} has ${values.length} numbers`, `${n}, one per cell`);
+  }
   const used = scratch.used.fill(0);
   const s = scratch.classes;
   for (let i = 0; i < n; i++) {

@@ -52,6 +52,7 @@ const corrupt: [string, string, RegExp][] = [
   ['a perimeter 1% short', edited((c) => (entry(c, 0).perimeter! *= 0.99)), /entry 1 .*: perimeter is 11\.07.* when expected 11\.1878021982, the length of its walls/],
   ['a pressure edited', edited((c) => (entry(c, 1).pressures![0] += 0.01)), /entry 2 \(rank 2, code "4:\.\.4\.\.\.hdg"\): re-checked curvatureResidual is/],
   ['a cell area that is not the query\'s', edited((c) => (entry(c, 0).cellAreas[0] = 2)), /entry 1 .*: cellAreas are \[2,1,1,1\] when expected \[1,1,1,1\]/],
+  ['an assignment with a cell too many', edited((c) => entry(c, 0).assignment.push(0)), /entry 1 .*: assignment has 5 numbers when expected 4, one per cell/],
   ['ranks out of order', edited((c) => ([c.entries[0], c.entries[1]] = [c.entries[1], c.entries[0]])), /entry 1 \(rank 2, code "4:\.\.4\.\.\.hdg"\): rank is 2 when expected 1/],
   ['ranks renumbered out of perimeter order', edited((c) => {
     [c.entries[0], c.entries[1]] = [c.entries[1], c.entries[0]];
