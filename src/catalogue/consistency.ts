@@ -13,7 +13,7 @@ import { summarizeCluster } from '../maps/describe.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from '../solver/certificate.ts';
 import { resolveOptions } from '../solver/options.ts';
 import { CatalogueFormatError, MapError } from '../errors.ts';
-import { type AreaClasses, areaClasses, isOrbitMinimal, labelledAssignmentCount, orbitCount, userIndices } from './assign.ts';
+import { type AreaClasses, areaClasses, labelledAssignmentCount, orbitCount, orbitRepresentative, userIndices } from './assign.ts';
 import { isFiltering, passesFilter } from './filter.ts';
 import { ORDER_DIGITS } from './rank.ts';
 import { type Catalogue, type CatalogueEntry, WRITE_DIGITS, roundWritten } from './types.ts';
@@ -56,7 +56,7 @@ interface Arrangement {
   passes: boolean;
   /** The cell permutations (computed only when the query has areas of more than one value). */
   group: Int32Array[] | null;
-  /** The assignments seen with this code (kept only when there can be more than one). */
+  /** The candidates seen with this code, as orbit representatives (kept only when there can be more than one). */
   assignments: Set<string> | null;
   /** Entries with this code. */
   entries: number;
@@ -85,7 +85,7 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
   const classes = areaClasses(query.areas);
   const oneClass = labelledAssignmentCount(classes) === 1;
   const filtering = isFiltering(query.filter);
-  const scratch = { used: new Uint8Array(n), classes: new Int32Array(n), image: new Int32Array(n) };
+  const scratch = { used: new Uint8Array(n), classes: new Int32Array(n) };
   const arrangements = new Map<string, Arrangement>();
   const idOf = new Map<string, string>();
   const codeOf = new Map<string, string>();
@@ -227,7 +227,7 @@ const same = (a: readonly number[], b: readonly number[]): boolean => a.length =
 function checkEntry(
   entry: CatalogueEntry, known: Arrangement, catalogue: Catalogue, classes: AreaClasses,
   idOf: Map<string, string>, codeOf: Map<string, string>,
-  scratch: { used: Uint8Array; classes: Int32Array; image: Int32Array },
+  scratch: { used: Uint8Array; classes: Int32Array },
 ): void {
   const { query } = catalogue;
   const n = query.areas.length;
@@ -262,15 +262,14 @@ function checkEntry(
       refuse(`cellAreas are [${entry.cellAreas}]`, `[${assignment.map((j) => roundWritten(query.areas[j]))}] (the query's areas under the assignment)`);
     }
   }
-  // equal areas are given out in the query's order (userIndices), the classes up to symmetry
+  // equal areas are given out in the query's order (userIndices); each candidate (the classes up to
+  // the symmetry of the arrangement, evaluate.ts) once: an exhaustive task writes the smallest sequence
+  // of each orbit, a search the sequence it tried
   const given = userIndices(s, classes);
   if (!same(given, assignment)) refuse(`assignment is [${assignment}]`, `[${given}] (equal areas given out in the query's order)`);
-  if (group !== null && !isOrbitMinimal(s, group, scratch.image)) {
-    refuse(`assignment [${assignment}] is not the representative of its orbit`, 'the smallest of its images under the symmetry of the arrangement');
-  }
-  if (assignments !== null) {
-    const key = assignment.join(',');
-    if (assignments.has(key)) refuse('code and assignment repeat an earlier entry', 'each candidate once');
+  if (group !== null && assignments !== null) {
+    const key = orbitRepresentative(s, group).join(',');
+    if (assignments.has(key)) refuse(`assignment [${assignment}] repeats the candidate of an earlier entry`, 'each candidate (assignment up to symmetry) once');
     assignments.add(key);
   }
 
