@@ -1,5 +1,5 @@
 // catalogue stage: write a catalogue as JSON text (deterministic bytes) and read one back, checked
-// against catalogues/catalogue.schema.json and its version.
+// against its version, catalogues/catalogue.schema.json and itself (consistency.ts).
 
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
@@ -75,7 +75,7 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
   let data: unknown;
   try {
     // Does the text start with a byte-order mark (some editors write one)? It is not part of the JSON.
-    data = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+    data = JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch {
     throw new CatalogueFormatError(`${source} is not JSON when expected a ${CATALOGUE_FORMAT} file.`);
   }

@@ -1,4 +1,5 @@
-// catalogue stage: the catalogue of a ranking, as plain data (what format.ts writes and reads).
+// catalogue stage: the catalogue of a ranking, as plain data (what format.ts writes and reads), and the
+// rounding of the floats written.
 
 import type { ArrangementFilter } from './filter.ts';
 import type { Certificate } from '../solver/certificate.ts';
