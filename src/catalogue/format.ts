@@ -1,24 +1,17 @@
 // catalogue stage: write a catalogue as JSON text (deterministic bytes) and read one back, checked
-// against catalogues/catalogue.schema.json and its version.
+// against its version, catalogues/catalogue.schema.json and itself (consistency.ts).
 
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
-import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue } from './types.ts';
+import { checkCatalogueConsistency } from './consistency.ts';
+import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, roundWritten } from './types.ts';
 
-/** Significant digits of every float written; the solver itself never rounds. */
-export const WRITE_DIGITS = 12;
-
-function round(x: number): number {
-  if (!Number.isFinite(x)) return x; // the schema refuses it: a non-finite number is a bug upstream
-  if (Number.isInteger(x)) return x;
-  const r = Number(x.toPrecision(WRITE_DIGITS));
-  return Object.is(r, -0) ? 0 : r;
-}
+export { WRITE_DIGITS } from './types.ts';
 
 function rounded(value: unknown): unknown {
-  if (typeof value === 'number') return round(value);
+  if (typeof value === 'number') return roundWritten(value);
   if (Array.isArray(value)) return value.map(rounded);
   if (value !== null && typeof value === 'object') {
     const out: Record<string, unknown> = {};
@@ -30,10 +23,13 @@ function rounded(value: unknown): unknown {
 
 /**
  * The catalogue as JSON text: the head pretty-printed, one entry per line, floats to 12 significant
- * digits, keys in a fixed order. Same catalogue, same bytes.
+ * digits except in the query, keys in a fixed order. Same catalogue, same bytes.
  */
 export function writeCatalogue(catalogue: Catalogue): string {
   const { entries, ...head } = rounded(catalogue) as Catalogue;
+  // the query as asked, to the last digit: areas that differ only beyond 12 digits are still different
+  // areas to the ranking (other classes, other candidates), and the reader recounts from them
+  head.query = catalogue.query;
   const lines = [
     '{',
     `  "format": ${JSON.stringify(head.format)},`,
@@ -63,15 +59,23 @@ function catalogueValidator(): ValidateFunction {
   return validator;
 }
 
+/** What a JSON value other than null is, in words: "a string", "an array", ... */
+function kindOf(value: unknown): string {
+  if (Array.isArray(value)) return 'an array';
+  return typeof value === 'object' ? 'an object' : `a ${typeof value}`;
+}
+
 /**
- * Read a catalogue from JSON text.
+ * Read a catalogue from JSON text (a leading UTF-8 byte-order mark is skipped), then check it: format
+ * name, version, schema, and the consistency of its counts, ranks and answers (consistency.ts).
  * @throws CatalogueFormatError when the text is not JSON, not a lather catalogue, of another version,
- *   or fails the schema.
+ *   fails the schema or contradicts itself; the message names `source` and, for an entry, which one.
  */
 export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
   let data: unknown;
   try {
-    data = JSON.parse(text);
+    // Does the text start with a byte-order mark (some editors write one)? It is not part of the JSON.
+    data = JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch {
     throw new CatalogueFormatError(`${source} is not JSON when expected a ${CATALOGUE_FORMAT} file.`);
   }
@@ -79,8 +83,14 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
   if (head === null || typeof head !== 'object' || head.format !== CATALOGUE_FORMAT) {
     throw new CatalogueFormatError(`${source} has format ${JSON.stringify(head?.format ?? null)} when expected "${CATALOGUE_FORMAT}".`);
   }
+  if (typeof head.version !== 'number') {
+    const given = head.version === undefined || head.version === null
+      ? `is ${head.version === null ? 'null' : 'missing'}`
+      : `${JSON.stringify(head.version)} is ${kindOf(head.version)}`;
+    throw new CatalogueFormatError(`${source}: version ${given} when expected the number ${CATALOGUE_VERSION}.`);
+  }
   if (head.version !== CATALOGUE_VERSION) {
-    throw new CatalogueFormatError(`Got v${String(head.version)} catalogue when expected v${CATALOGUE_VERSION}.`);
+    throw new CatalogueFormatError(`Got v${head.version} catalogue in ${source} when expected v${CATALOGUE_VERSION}.`);
   }
   const validate = catalogueValidator();
   if (!validate(data)) {
@@ -88,5 +98,7 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
     const where = err?.instancePath || '/';
     throw new CatalogueFormatError(`${source} fails its schema at ${where}: ${err?.message ?? 'invalid'} when expected a valid v${CATALOGUE_VERSION} catalogue.`);
   }
-  return data as unknown as Catalogue;
+  const catalogue = data as unknown as Catalogue;
+  checkCatalogueConsistency(catalogue, source);
+  return catalogue;
 }

@@ -1,4 +1,5 @@
-// catalogue stage: the catalogue of a ranking, as plain data (what format.ts writes and reads).
+// catalogue stage: the catalogue of a ranking, as plain data (what format.ts writes and reads), and the
+// rounding of the floats written.
 
 import type { ArrangementFilter } from './filter.ts';
 import type { Certificate } from '../solver/certificate.ts';
@@ -7,6 +8,16 @@ import type { Certificate } from '../solver/certificate.ts';
 export const CATALOGUE_FORMAT = 'lather-catalogue';
 /** Version of the catalogue format this release reads and writes. */
 export const CATALOGUE_VERSION = 1;
+/** Significant digits of every float written (but the query's); the solver itself never rounds. */
+export const WRITE_DIGITS = 12;
+
+/** A float as a catalogue file holds it: WRITE_DIGITS significant digits, integers as they are, no -0. */
+export function roundWritten(x: number): number {
+  if (!Number.isFinite(x)) return x; // the schema refuses it: a non-finite number is a bug upstream
+  if (Number.isInteger(x)) return x;
+  const r = Number(x.toPrecision(WRITE_DIGITS));
+  return Object.is(r, -0) ? 0 : r;
+}
 
 /** What was asked. */
 export interface CatalogueQuery {
