@@ -1,10 +1,7 @@
-// cli stage: turn catalogue entries and relaxer answers into drawings, and drawings into files.
+// cli stage: contact sheets of catalogue entries (the drawings themselves: render/entry.ts).
 
-import { clusterFromCode } from '../maps/cluster.ts';
-import type { Cluster } from '../maps/cluster.ts';
 import type { CatalogueEntry } from '../catalogue/types.ts';
-import type { Equilibrium } from '../solver/result.ts';
-import type { ClusterDrawing } from '../render/types.ts';
+import { entryDrawing } from '../render/entry.ts';
 import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
 import { UsageError } from '../errors.ts';
 
@@ -21,32 +18,7 @@ export function checkSheetTop(top: number, topGiven: boolean, sheet: string | un
   }
 }
 
-/** The drawing of a certified catalogue entry (null for a failure, which has no geometry). */
-export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
-  if (entry.geometry === null) return null;
-  const cluster = clusterFromCode(entry.code);
-  return {
-    map: cluster.map,
-    coords: Float64Array.from(entry.geometry.coords),
-    bulges: Float64Array.from(entry.geometry.bulges),
-    areas: Float64Array.from(entry.cellAreas),
-    pressures: entry.pressures === null ? undefined : Float64Array.from(entry.pressures),
-    title: entry.id,
-  };
-}
-
-/** The drawing of a relaxer answer. */
-export function equilibriumDrawing(cluster: Cluster, areas: Float64Array, eq: Equilibrium, title: string): ClusterDrawing {
-  return {
-    map: cluster.map,
-    coords: eq.coords,
-    bulges: eq.bulges,
-    areas,
-    pressures: eq.pressures,
-    title,
-    caption: `perimeter ${eq.perimeter.toPrecision(10)}  (${eq.status})`,
-  };
-}
+export { entryDrawing, equilibriumDrawing } from '../render/entry.ts';
 
 /** A contact sheet of catalogue entries with geometry, captioned with rank, id, perimeter and index. */
 export function entriesSheet(entries: CatalogueEntry[], title: string): string {

@@ -48,6 +48,11 @@ const VERBS: readonly Verb[] = [
     load: async () => (await import('./show.ts')).addShowCommand,
   },
   {
+    name: 'view',
+    summary: 'write a catalogue file as one self-contained web page: cards, sorting, filters, live relax',
+    load: async () => (await import('./view.ts')).addViewCommand,
+  },
+  {
     name: 'sweep',
     summary: 'which arrangement wins as the areas change: along a path, over a grid or over a triangle of shares',
     load: async () => (await import('./sweep.ts')).addSweepCommand,

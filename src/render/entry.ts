@@ -1,0 +1,35 @@
+// render stage: the drawing of a catalogue entry or of a relaxer answer (shared by the CLI and the
+// catalogue viewer's page script).
+
+import { clusterFromCode } from '../maps/cluster.ts';
+import type { Cluster } from '../maps/cluster.ts';
+import type { CatalogueEntry } from '../catalogue/types.ts';
+import type { Equilibrium } from '../solver/result.ts';
+import type { ClusterDrawing } from './types.ts';
+
+/** The drawing of a certified catalogue entry (null for a failure, which has no geometry). */
+export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
+  if (entry.geometry === null) return null;
+  const cluster = clusterFromCode(entry.code);
+  return {
+    map: cluster.map,
+    coords: Float64Array.from(entry.geometry.coords),
+    bulges: Float64Array.from(entry.geometry.bulges),
+    areas: Float64Array.from(entry.cellAreas),
+    pressures: entry.pressures === null ? undefined : Float64Array.from(entry.pressures),
+    title: entry.id,
+  };
+}
+
+/** The drawing of a relaxer answer (for a failure: where the solve stopped). */
+export function equilibriumDrawing(cluster: Cluster, areas: Float64Array, eq: Equilibrium, title: string): ClusterDrawing {
+  return {
+    map: cluster.map,
+    coords: eq.coords,
+    bulges: eq.bulges,
+    areas,
+    pressures: eq.pressures,
+    title,
+    caption: `perimeter ${eq.perimeter.toPrecision(10)}  (${eq.status})`,
+  };
+}

@@ -1,0 +1,357 @@
+// view stage (page script): the catalogue viewer in the browser. Reads the page's data block, keeps the
+// view in the URL fragment, draws the cards of the rows the view shows (render/), opens one entry's
+// details and relaxes it again at the areas its sliders give (solver/, the same relax() as the CLI's).
+
+import type { CatalogueEntry } from '../../catalogue/types.ts';
+import { clusterFromCode, type Cluster } from '../../maps/cluster.ts';
+import { relax } from '../../solver/newton.ts';
+import type { Equilibrium } from '../../solver/result.ts';
+import { entryDrawing, equilibriumDrawing } from '../../render/entry.ts';
+import { renderClusterSvg } from '../../render/svg.ts';
+import { renderContactSheet, type SheetItem } from '../../render/sheet.ts';
+import { escapeXml, formatValue } from '../../render/format.ts';
+import { wallSwapCode } from '../facts.ts';
+import { DATA_ELEMENT_ID, type ViewData } from '../page.ts';
+import { DEFAULT_VIEW, type ViewRow, type ViewState, readFragment, viewRows, writeFragment } from '../query.ts';
+import { CardGrid } from './grid.ts';
+
+const data = JSON.parse(document.getElementById(DATA_ELEMENT_ID)!.textContent!) as ViewData;
+const rows: ViewRow[] = data.catalogue.entries.map((entry, position) => ({ entry, facts: data.facts[position], position }));
+const byKey = new Map(rows.map((row) => [row.facts.key, row]));
+// the card a code links to: its first certified entry, else its first failure
+const byCode = new Map<string, ViewRow>();
+for (const row of rows) if (!byCode.has(row.entry.code) || (row.entry.status === 'ok' && byCode.get(row.entry.code)!.entry.status !== 'ok')) byCode.set(row.entry.code, row);
+
+let view: ViewState = readFragment(location.hash);
+const drawings = new Map<number, string>();
+const clusters = new Map<string, Cluster>();
+
+function clusterOfCode(code: string): Cluster {
+  let cluster = clusters.get(code);
+  if (cluster === undefined) {
+    cluster = clusterFromCode(code);
+    clusters.set(code, cluster);
+  }
+  return cluster;
+}
+
+const html = escapeXml;
+const num = (x: number | null, digits = 10): string => (x === null ? '–' : formatValue(x, digits));
+const exp = (x: number): string => (x === 0 ? '0' : x.toExponential(1));
+
+/** The link to a view with `key`'s entry open. */
+function linkTo(key: string): string {
+  return `#${writeFragment({ ...view, selected: key })}`;
+}
+
+/** A link to the card of an arrangement's code, or the code alone when the catalogue does not hold it. */
+function codeLink(code: string | null): string {
+  if (code === null) return 'none (the swap leaves no admissible arrangement)';
+  const target = byCode.get(code);
+  if (target === undefined) return `<span class="mono">${html(code)}</span> (not in this catalogue)`;
+  return `<a href="${html(linkTo(target.facts.key))}" data-link="${html(target.facts.key)}">${html(target.entry.id || code)}</a> <span class="mono">${html(code)}</span>`;
+}
+
+function stability(entry: CatalogueEntry): string {
+  if (entry.status !== 'ok') return `<span class="badge failure">${html(entry.status)}</span>`;
+  return entry.index === 0 ? '<span class="badge stable">stable</span>' : `<span class="badge saddle">index ${entry.index}</span>`;
+}
+
+/** The verdict of a failure in words. */
+function verdict(entry: { status: string; collapsingWall: number | null; collapsingCell: number | null }, t1: string | null): string {
+  if (entry.status === 'wall-collapse') return `wall ${entry.collapsingWall} shrinks to zero; its T1 swap gives ${codeLink(t1)}`;
+  if (entry.status === 'cell-collapse') return `cell ${entry.collapsingCell} pinches off from the others`;
+  if (entry.status === 'walls-cross') return 'the equations hold but walls cross';
+  if (entry.status === 'no-convergence') return 'the relaxer reached no verdict';
+  return html(entry.status);
+}
+
+function cardDrawing(row: ViewRow): string {
+  let svg = drawings.get(row.position);
+  if (svg === undefined) {
+    const drawing = entryDrawing(row.entry);
+    svg = drawing === null ? '' : renderClusterSvg(drawing, { sizePx: 150, marginPx: 4, headings: false, background: null, fontSizePx: 10, strokeWidthPx: 1.25 });
+    drawings.set(row.position, svg);
+  }
+  return svg;
+}
+
+function fillCard(card: HTMLElement, row: ViewRow): void {
+  const { entry, facts } = row;
+  const picked = view.compare.includes(facts.key);
+  const pick = `<label><input type="checkbox" tabindex="-1" data-pick${picked ? ' checked' : ''}> compare</label>`;
+  if (entry.status === 'ok') {
+    card.innerHTML = `<div class="head"><span>#${entry.rank}</span><span>${html(entry.id)}</span></div>
+<div class="drawing">${cardDrawing(row)}</div>
+<div class="code">${html(entry.code)}</div>
+<dl><dt>perimeter</dt><dd data-perimeter="${entry.perimeter}">${num(entry.perimeter)}</dd><dt>gap</dt><dd>${num(entry.gapPercent, 4)} %</dd>
+<dt>index</dt><dd>${entry.index}, zero modes ${entry.zeroModes}</dd></dl>
+<div class="row">${stability(entry)} ${pick}</div>`;
+  } else {
+    card.innerHTML = `<div class="head"><span>${html(entry.id)}</span>${stability(entry)}</div>
+<div class="code">${html(entry.code)}</div>
+<p class="verdict-text">${verdict(entry, facts.t1)}</p>
+<div class="row">${pick}</div>`;
+    for (const a of card.querySelectorAll('a')) a.tabIndex = -1;
+  }
+  card.querySelector<HTMLInputElement>('input[data-pick]')!.addEventListener('change', () => togglePick(row));
+}
+
+const hooks = {
+  fill: fillCard,
+  choose: (row: ViewRow) => setView({ ...view, selected: row.facts.key }),
+  pick: (row: ViewRow) => togglePick(row),
+  isChosen: (row: ViewRow) => view.selected === row.facts.key,
+  isPicked: (row: ViewRow) => view.compare.includes(row.facts.key),
+};
+const equilibria = new CardGrid(document.querySelector<HTMLElement>('#equilibria .grid')!, hooks);
+const failures = new CardGrid(document.querySelector<HTMLElement>('#failures .grid')!, hooks);
+
+function togglePick(row: ViewRow): void {
+  const key = row.facts.key;
+  const compare = view.compare.includes(key) ? view.compare.filter((k) => k !== key) : [...view.compare, key].slice(-2);
+  setView({ ...view, compare });
+}
+
+// ---------------------------------------------------------------------------------------------- controls
+
+const form = document.getElementById('controls') as HTMLFormElement;
+const field = <T extends HTMLElement>(name: string): T => form.elements.namedItem(name) as unknown as T;
+
+function showControls(): void {
+  field<HTMLSelectElement>('sort').value = view.sort;
+  field<HTMLInputElement>('desc').checked = view.descending;
+  const status = field<HTMLSelectElement>('status');
+  status.value = view.status;
+  if (status.value !== view.status) status.value = 'all';
+  field<HTMLInputElement>('stable').checked = view.stableOnly;
+  field<HTMLSelectElement>('conn').value = view.connectivity;
+  field<HTMLSelectElement>('lens').value = view.lens;
+  field<HTMLInputElement>('minSides').value = view.minSides === null ? '' : String(view.minSides);
+  field<HTMLInputElement>('maxSides').value = view.maxSides === null ? '' : String(view.maxSides);
+  const search = field<HTMLInputElement>('search');
+  if (search.value !== view.search) search.value = view.search;
+}
+
+function readControls(): ViewState {
+  const sides = (name: string): number | null => {
+    const v = field<HTMLInputElement>(name).value.trim();
+    return /^[0-9]+$/.test(v) ? Number(v) : null;
+  };
+  return {
+    ...view,
+    sort: field<HTMLSelectElement>('sort').value as ViewState['sort'],
+    descending: field<HTMLInputElement>('desc').checked,
+    status: field<HTMLSelectElement>('status').value,
+    stableOnly: field<HTMLInputElement>('stable').checked,
+    connectivity: field<HTMLSelectElement>('conn').value as ViewState['connectivity'],
+    lens: field<HTMLSelectElement>('lens').value as ViewState['lens'],
+    minSides: sides('minSides'),
+    maxSides: sides('maxSides'),
+    search: field<HTMLInputElement>('search').value,
+  };
+}
+
+form.addEventListener('input', () => setView(readControls()));
+form.addEventListener('change', () => setView(readControls()));
+form.addEventListener('submit', (event) => event.preventDefault());
+field<HTMLButtonElement>('reset').addEventListener('click', () => setView({ ...DEFAULT_VIEW, compare: [] }));
+
+// ---------------------------------------------------------------------------------------------- the view
+
+let shownKey = '';
+
+/** Take a new view: the fragment, the controls, the rows, the panels. */
+function setView(next: ViewState, fromFragment = false): void {
+  const before = view;
+  view = next;
+  const fragment = writeFragment(view);
+  if (!fromFragment && location.hash.slice(1) !== fragment) history.replaceState(null, '', fragment === '' ? location.pathname + location.search : `#${fragment}`);
+  showControls();
+  const filterKey = JSON.stringify([view.sort, view.descending, view.status, view.stableOnly, view.connectivity, view.lens, view.minSides, view.maxSides, view.search]);
+  if (filterKey !== shownKey) {
+    shownKey = filterKey;
+    const shown = viewRows(rows, view);
+    equilibria.setRows(shown.filter((row) => row.entry.status === 'ok'));
+    failures.setRows(shown.filter((row) => row.entry.status !== 'ok'));
+    showCounts();
+  } else if (before.selected !== view.selected || before.compare.join() !== view.compare.join()) {
+    equilibria.refresh();
+    failures.refresh();
+  }
+  if (before.selected !== view.selected || !detailsShown) showDetails();
+  if (before.compare.join() !== view.compare.join() || !compareShown) showCompare();
+}
+
+function showCounts(): void {
+  const okTotal = rows.filter((row) => row.entry.status === 'ok').length;
+  const failTotal = rows.length - okTotal;
+  const ok = equilibria.shown().length;
+  const fail = failures.shown().length;
+  document.getElementById('counts')!.textContent = `Showing ${ok} of ${okTotal} certified equilibria and ${fail} of ${failTotal} entries without an equilibrium.`;
+  document.querySelector('#equilibria .count')!.textContent = `(${ok})`;
+  document.querySelector('#failures .count')!.textContent = `(${fail})`;
+  document.getElementById('failures')!.hidden = failTotal === 0;
+}
+
+// ---------------------------------------------------------------------------------------------- details
+
+let detailsShown = false;
+let compareShown = false;
+const detailsPanel = document.getElementById('details')!;
+const comparePanel = document.getElementById('compare')!;
+
+function showDetails(): void {
+  detailsShown = true;
+  const row = view.selected === null ? undefined : byKey.get(view.selected);
+  if (row === undefined) {
+    detailsPanel.hidden = true;
+    detailsPanel.innerHTML = '';
+    return;
+  }
+  const { entry, facts } = row;
+  const cluster = clusterOfCode(entry.code);
+  const drawing = entryDrawing(entry);
+  const c = entry.certificate;
+  const cells = entry.sides.map((s, i) => `<tr><td>${i + 1}</td><td>${s}</td><td>${num(entry.cellAreas[i], 6)}</td><td>${entry.pressures === null ? '–' : num(entry.pressures[i], 8)}</td></tr>`).join('');
+  const t1 = entry.status === 'ok'
+    ? `<p>T1 neighbour through its shortest wall (${facts.shortestWall}): ${codeLink(facts.t1)}</p>`
+    : `<p>Verdict: ${verdict(entry, facts.t1)}.</p>`;
+  const facts3 = `${facts.threeConnected ? '3-connected' : 'not 3-connected'}, ${facts.lens ? 'with a lens' : 'no lens'}, ${cluster.cells} cells`;
+  detailsPanel.innerHTML = `<h2 id="details-heading">${entry.rank === null ? '' : `#${entry.rank} `}${html(entry.id)} ${stability(entry)}</h2>
+<p class="mono">${html(entry.code)}</p>
+<p>${facts3}</p>
+${drawing === null ? '' : `<div class="drawing">${renderClusterSvg(drawing, { sizePx: 300, headings: false, pressures: true })}</div>`}
+<p>${entry.status === 'ok' ? `Perimeter <strong>${num(entry.perimeter, 12)}</strong>, gap ${num(entry.gapPercent, 4)} %, index ${entry.index}, zero modes ${entry.zeroModes}, ` : ''}${entry.iterations} Newton iterations.</p>
+${t1}
+<table><caption>Cells</caption><thead><tr><th>cell</th><th>sides</th><th>area</th><th>pressure</th></tr></thead><tbody>${cells}</tbody></table>
+<table><caption>Certificate${entry.status === 'ok' ? '' : ' (the last state reached)'}</caption><tbody>
+<tr><td>area residual</td><td>${exp(c.areaResidual)}</td></tr><tr><td>tangent sums</td><td>${exp(c.tangentResidual)}</td></tr>
+<tr><td>Laplace-Young residual</td><td>${exp(c.curvatureResidual)}</td></tr><tr><td>shortest wall</td><td>${num(c.minWallLength, 4)}</td></tr>
+<tr><td>smallest cell</td><td>${num(c.minCellArea, 4)}</td></tr><tr><td>crossings</td><td>${c.crossings}</td></tr><tr><td>misordered junctions</td><td>${c.misorderedJunctions}</td></tr>
+</tbody></table>
+<div class="row"><button type="button" data-action="pick">${view.compare.includes(facts.key) ? 'Drop from comparison' : 'Pick for comparison'}</button><button type="button" data-action="close">Close</button></div>
+${liveControls(entry)}`;
+  detailsPanel.hidden = false;
+  detailsPanel.querySelector('[data-action=pick]')!.addEventListener('click', () => togglePick(row));
+  detailsPanel.querySelector('[data-action=close]')!.addEventListener('click', () => setView({ ...view, selected: null }));
+  attachLive(detailsPanel, row, cluster);
+}
+
+// ---------------------------------------------------------------------------------------------- live relax
+
+function liveControls(entry: CatalogueEntry): string {
+  const sliders = entry.cellAreas.map((a, i) =>
+    `<label><span>cell ${i + 1}</span><input type="range" data-cell="${i}" min="${a / 4}" max="${4 * a}" step="${a / 100}" value="${a}" aria-label="area of cell ${i + 1}"><output>${formatValue(a, 4)}</output></label>`).join('');
+  return `<section class="live" aria-labelledby="live-heading"><h3 id="live-heading">Relax at other areas</h3>
+<p class="hint">Move a slider: the arrangement is relaxed again in this page.</p>${sliders}
+<div class="row"><button type="button" data-action="restore">Back to the catalogue's areas</button></div>
+<p id="live-result" class="verdict" role="status" aria-live="polite"></p><div class="drawing" id="live-drawing"></div></section>`;
+}
+
+function attachLive(panel: HTMLElement, row: ViewRow, cluster: Cluster): void {
+  const sliders = [...panel.querySelectorAll<HTMLInputElement>('.live input[type=range]')];
+  const result = panel.querySelector<HTMLElement>('#live-result')!;
+  const picture = panel.querySelector<HTMLElement>('#live-drawing')!;
+  let pending = false;
+  const run = (): void => {
+    pending = false;
+    const areas = Float64Array.from(sliders, (s) => Number(s.value));
+    sliders.forEach((s, i) => (s.nextElementSibling!.textContent = formatValue(areas[i], 4)));
+    const eq = relax(cluster.map, areas);
+    showLive(result, picture, row, cluster, areas, eq);
+  };
+  const schedule = (): void => {
+    if (pending) return;
+    pending = true;
+    requestAnimationFrame(run);
+  };
+  for (const s of sliders) s.addEventListener('input', schedule);
+  panel.querySelector('[data-action=restore]')!.addEventListener('click', () => {
+    sliders.forEach((s, i) => (s.value = String(row.entry.cellAreas[i])));
+    schedule();
+  });
+}
+
+function showLive(result: HTMLElement, picture: HTMLElement, row: ViewRow, cluster: Cluster, areas: Float64Array, eq: Equilibrium): void {
+  result.dataset.areas = JSON.stringify([...areas]);
+  result.dataset.status = eq.status;
+  if (eq.status === 'ok') {
+    result.dataset.perimeter = String(eq.perimeter);
+    result.classList.remove('failure');
+    result.innerHTML = `Perimeter <strong>${formatValue(eq.perimeter, 12)}</strong> (certified, index ${eq.index}, zero modes ${eq.zeroModes})`;
+    picture.innerHTML = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, row.entry.id), { sizePx: 300, headings: false, pressures: true });
+  } else {
+    delete result.dataset.perimeter;
+    result.classList.add('failure');
+    const t1 = eq.status === 'wall-collapse' && eq.collapsingWall !== null ? wallSwapCode(cluster, eq.collapsingWall) : null;
+    result.innerHTML = `No equilibrium at these areas: ${verdict(eq, t1)}.`;
+    picture.innerHTML = '';
+  }
+}
+
+// ---------------------------------------------------------------------------------------------- compare
+
+function showCompare(): void {
+  compareShown = true;
+  const picked = view.compare.map((k) => byKey.get(k)).filter((row): row is ViewRow => row !== undefined);
+  if (picked.length === 0) {
+    comparePanel.hidden = true;
+    comparePanel.innerHTML = '';
+    return;
+  }
+  const items: SheetItem[] = [];
+  for (const { entry } of picked) {
+    const drawing = entryDrawing(entry);
+    if (drawing !== null) items.push({ drawing, rank: entry.rank ?? undefined, id: entry.id, perimeter: entry.perimeter ?? undefined });
+  }
+  const cell = (f: (e: CatalogueEntry) => string): string => picked.map(({ entry }) => `<td>${f(entry)}</td>`).join('');
+  const [a, b] = picked.map((row) => row.entry);
+  const difference = picked.length === 2 && a.perimeter !== null && b.perimeter !== null
+    ? `<p>Perimeter difference ${formatValue(b.perimeter - a.perimeter, 6)} (${formatValue((100 * (b.perimeter - a.perimeter)) / a.perimeter, 4)} % of the first).</p>`
+    : '';
+  comparePanel.innerHTML = `<h2 id="compare-heading">Comparison</h2>
+${picked.length < 2 ? '<p>Pick one more entry (Space on a card, or its compare box).</p>' : ''}
+${items.length === 0 ? '' : `<div class="drawing">${renderContactSheet(items, { columns: items.length, tilePx: 180, gapPx: 6, commonScale: true })}</div>`}
+<table><thead><tr><th></th>${picked.map(({ entry, facts }) => `<th><a href="${html(linkTo(facts.key))}">${html(entry.id)}</a></th>`).join('')}</tr></thead><tbody>
+<tr><td>rank</td>${cell((e) => (e.rank === null ? '–' : String(e.rank)))}</tr>
+<tr><td>perimeter</td>${cell((e) => num(e.perimeter))}</tr>
+<tr><td>gap %</td>${cell((e) => num(e.gapPercent, 4))}</tr>
+<tr><td>index</td>${cell((e) => (e.index === null ? '–' : String(e.index)))}</tr>
+<tr><td>zero modes</td>${cell((e) => (e.zeroModes === null ? '–' : String(e.zeroModes)))}</tr>
+<tr><td>sides</td>${cell((e) => e.sides.join(' '))}</tr>
+<tr><td>status</td>${cell((e) => html(e.status))}</tr>
+</tbody></table>${difference}
+<div class="row"><button type="button" data-action="clear">Clear the comparison</button></div>`;
+  comparePanel.hidden = false;
+  comparePanel.querySelector('[data-action=clear]')!.addEventListener('click', () => setView({ ...view, compare: [] }));
+}
+
+// ---------------------------------------------------------------------------------------------- start
+
+let frame = 0;
+function relayout(): void {
+  if (frame !== 0) return;
+  frame = requestAnimationFrame(() => {
+    frame = 0;
+    equilibria.update();
+    failures.update();
+  });
+}
+
+/** Bring the selected card into view (a link followed, or a page opened on one). */
+function revealSelected(focus: boolean): void {
+  if (view.selected === null) return;
+  if (!equilibria.reveal(view.selected, focus)) failures.reveal(view.selected, focus);
+}
+
+window.addEventListener('scroll', relayout, { passive: true });
+window.addEventListener('resize', relayout);
+new ResizeObserver(relayout).observe(document.getElementById('lists')!);
+window.addEventListener('hashchange', () => {
+  setView(readFragment(location.hash), true);
+  revealSelected(true);
+});
+setView(view, true);
+revealSelected(false);
+document.documentElement.dataset.ready = 'true';
