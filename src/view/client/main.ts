@@ -12,7 +12,7 @@ import { renderContactSheet, type SheetItem } from '../../render/sheet.ts';
 import { escapeXml, formatValue } from '../../render/format.ts';
 import { wallSwapCode } from '../facts.ts';
 import { DATA_ELEMENT_ID, type ViewData } from '../page.ts';
-import { DEFAULT_VIEW, type ViewRow, type ViewState, readFragment, viewRows, writeFragment } from '../query.ts';
+import { DEFAULT_VIEW, type ViewRow, type ViewState, passesView, readFragment, viewRows, writeFragment } from '../query.ts';
 import { CardGrid } from './grid.ts';
 
 const data = JSON.parse(document.getElementById(DATA_ELEMENT_ID)!.textContent!) as ViewData;
@@ -39,10 +39,26 @@ const html = escapeXml;
 const num = (x: number | null, digits = 10): string => (x === null ? '–' : formatValue(x, digits));
 const exp = (x: number): string => (x === 0 ? '0' : x.toExponential(1));
 
+/** The view with `key`'s entry open: the present one, or its sorting alone when its filters hide that entry. */
+function viewWith(key: string): ViewState {
+  const row = byKey.get(key);
+  const next = { ...view, selected: key };
+  if (row === undefined || passesView(row, next)) return next;
+  return { ...DEFAULT_VIEW, sort: view.sort, descending: view.descending, selected: key, compare: view.compare };
+}
+
 /** The link to a view with `key`'s entry open. */
 function linkTo(key: string): string {
-  return `#${writeFragment({ ...view, selected: key })}`;
+  return `#${writeFragment(viewWith(key))}`;
 }
+
+// a link to a card is followed with the view of the moment (the link was written with an earlier one)
+document.addEventListener('click', (event) => {
+  const link = (event.target as HTMLElement).closest<HTMLAnchorElement>('a[data-link]');
+  if (link === null || event.button !== 0 || event.ctrlKey || event.metaKey || event.shiftKey) return;
+  event.preventDefault();
+  location.hash = writeFragment(viewWith(link.dataset.link!));
+});
 
 /** A link to the card of an arrangement's code, or the code alone when the catalogue does not hold it. */
 function codeLink(code: string | null): string {
@@ -313,7 +329,7 @@ function showCompare(): void {
   comparePanel.innerHTML = `<h2 id="compare-heading">Comparison</h2>
 ${picked.length < 2 ? '<p>Pick one more entry (Space on a card, or its compare box).</p>' : ''}
 ${items.length === 0 ? '' : `<div class="drawing">${renderContactSheet(items, { columns: items.length, tilePx: 180, gapPx: 6, commonScale: true })}</div>`}
-<table><thead><tr><th></th>${picked.map(({ entry, facts }) => `<th><a href="${html(linkTo(facts.key))}">${html(entry.id)}</a></th>`).join('')}</tr></thead><tbody>
+<table><thead><tr><th></th>${picked.map(({ entry, facts }) => `<th><a href="${html(linkTo(facts.key))}" data-link="${html(facts.key)}">${html(entry.id)}</a></th>`).join('')}</tr></thead><tbody>
 <tr><td>rank</td>${cell((e) => (e.rank === null ? '–' : String(e.rank)))}</tr>
 <tr><td>perimeter</td>${cell((e) => num(e.perimeter))}</tr>
 <tr><td>gap %</td>${cell((e) => num(e.gapPercent, 4))}</tr>
