@@ -165,10 +165,8 @@ export function passesView(row: ViewRow, view: ViewState): boolean {
   return true;
 }
 
-/** Compare two side lists, largest counts first: [6, 5, 5] comes after [6, 5, 4]. */
-function compareSides(a: readonly number[], b: readonly number[]): number {
-  const x = [...a].sort((p, q) => q - p);
-  const y = [...b].sort((p, q) => q - p);
+/** Compare two side lists already sorted largest first: [6, 5, 5] comes after [6, 5, 4]. */
+function compareSides(x: readonly number[], y: readonly number[]): number {
   for (let i = 0; i < Math.min(x.length, y.length); i++) if (x[i] !== y[i]) return x[i] - y[i];
   return x.length - y.length;
 }
@@ -187,13 +185,16 @@ function compareMissingLast(a: number | null, b: number | null, sign: number): n
 export function viewRows(rows: readonly ViewRow[], view: ViewState): ViewRow[] {
   const sign = view.descending ? -1 : 1;
   const kept = rows.filter((row) => passesView(row, view));
+  // side lists sorted largest first, once per row rather than once per comparison
+  const sides = new Map<ViewRow, number[]>();
+  if (view.sort === 'sides') for (const row of kept) sides.set(row, [...row.entry.sides].sort((p, q) => q - p));
   const order = (a: ViewRow, b: ViewRow): number => {
     const x = a.entry;
     const y = b.entry;
     let c = 0;
     if (view.sort === 'perimeter') c = compareMissingLast(x.perimeter, y.perimeter, sign);
     else if (view.sort === 'gap') c = compareMissingLast(x.gapPercent, y.gapPercent, sign);
-    else if (view.sort === 'sides') c = sign * compareSides(x.sides, y.sides);
+    else if (view.sort === 'sides') c = sign * compareSides(sides.get(a)!, sides.get(b)!);
     else c = compareMissingLast(x.index, y.index, sign) || compareMissingLast(x.perimeter, y.perimeter, sign);
     return c || a.position - b.position;
   };

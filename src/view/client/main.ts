@@ -86,7 +86,7 @@ function cardDrawing(row: ViewRow): string {
   let svg = drawings.get(row.position);
   if (svg === undefined) {
     const drawing = entryDrawing(row.entry);
-    svg = drawing === null ? '' : renderClusterSvg(drawing, { sizePx: 150, marginPx: 4, headings: false, background: null, fontSizePx: 10, strokeWidthPx: 1.25 });
+    svg = drawing === null ? '' : renderClusterSvg(drawing, { sizePx: 150, marginPx: 4, headings: false, background: null, labels: false, strokeWidthPx: 1.25 });
     drawings.set(row.position, svg);
   }
   return svg;
@@ -208,6 +208,17 @@ function showCounts(): void {
   document.querySelector('#equilibria .count')!.textContent = `(${ok})`;
   document.querySelector('#failures .count')!.textContent = `(${fail})`;
   document.getElementById('failures')!.hidden = failTotal === 0;
+  for (const [id, n] of [['equilibria', ok], ['failures', fail]] as const) {
+    const section = document.getElementById(id)!;
+    let note = section.querySelector<HTMLElement>('.empty');
+    if (note === null) {
+      note = document.createElement('p');
+      note.className = 'empty';
+      note.textContent = 'No entry here passes the filters.';
+      section.querySelector('h2')!.after(note);
+    }
+    note.hidden = n > 0;
+  }
 }
 
 // ---------------------------------------------------------------------------------------------- details
