@@ -263,6 +263,27 @@ describe('the viewer page of catalogues/equal-5.json in Chromium', () => {
   });
 });
 
+describe('every committed catalogue', () => {
+  const names = ['equal-1', 'equal-2', 'equal-3', 'equal-4', 'equal-6', 'equal-7', 'tray-pair', 'tray-trio', 'tray-mixed', 'tray-six'];
+
+  beforeAll(async () => {
+    for (const name of names) await makePage(name);
+  });
+
+  it('opens with one card per entry (the circle, lenses, unequal areas and repeated ids included) and no error', async () => {
+    for (const name of names) {
+      const { page, watch } = await open(name);
+      const { catalogue } = pages[name];
+      const shown = await shownKeys(page);
+      expect(shown.equilibria.length, name).toBe(catalogue.counts.equilibria);
+      expect(shown.equilibria.length + shown.failures.length, name).toBe(catalogue.entries.length);
+      expect(new Set([...shown.equilibria, ...shown.failures]).size, name).toBe(catalogue.entries.length);
+      expect(watch.errors, name).toEqual([]);
+      await page.close();
+    }
+  });
+});
+
 describe('ten thousand entries (catalogues/equal-8.json: 15069)', () => {
   beforeAll(async () => {
     await makePage('equal-8');

@@ -67,6 +67,17 @@ describe('the packed package, installed', () => {
     expect(JSON.parse(readFileSync(pooled, 'utf8')).counts.candidates).toBeGreaterThanOrEqual(64);
   });
 
+  it('lather view writes its page with the page script the package ships (dist/view/client.js; no esbuild installed)', () => {
+    const pkg = join(home, 'node_modules', 'lather');
+    expect(readdirSync(join(home, 'node_modules'))).not.toContain('esbuild');
+    const page = join(home, 'equal-4.html');
+    const r = installed(['view', join(root, 'catalogues', 'equal-4.json'), '--out', page]);
+    expect(r.status, r.stderr).toBe(0);
+    const script = readFileSync(join(pkg, 'dist', 'view', 'client.js'), 'utf8');
+    expect(script.length).toBeGreaterThan(10000);
+    expect(readFileSync(page, 'utf8')).toContain(`<script type="module">${script.replace(/<\/(script)/gi, '<\\/$1')}</script>`);
+  });
+
   it('bad input is one line and exit status 2', () => {
     const r = installed(['rank', '--areas', '1,0']);
     expect(r.status).toBe(2);

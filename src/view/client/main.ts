@@ -115,7 +115,11 @@ function fillCard(card: HTMLElement, row: ViewRow): void {
 
 const hooks = {
   fill: fillCard,
-  choose: (row: ViewRow) => setView({ ...view, selected: row.facts.key }),
+  choose: (row: ViewRow) => {
+    setView({ ...view, selected: row.facts.key });
+    // in one column the details sit above the cards: bring them into view
+    if (matchMedia('(max-width: 64rem)').matches) detailsPanel.scrollIntoView({ block: 'start' });
+  },
   pick: (row: ViewRow) => togglePick(row),
   isChosen: (row: ViewRow) => view.selected === row.facts.key,
   isPicked: (row: ViewRow) => view.compare.includes(row.facts.key),
