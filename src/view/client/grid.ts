@@ -30,6 +30,9 @@ export class CardGrid {
   private cardWidth = 0;
   private rowHeight = 0;
   private active = 0;
+  private cardHeight = 0;
+  private measuredRem = 0;
+  private measuredWidth = -1;
 
   constructor(element: HTMLElement, hooks: GridHooks) {
     this.element = element;
@@ -63,8 +66,14 @@ export class CardGrid {
   update(): void {
     const rem = Number.parseFloat(getComputedStyle(document.documentElement).fontSize) || 16;
     const gap = 0.75 * rem;
-    const probe = this.cardHeightPx();
     const width = this.element.clientWidth;
+    // a card's height is measured again only when the text size or the width changed (a probe forces a layout)
+    if (rem !== this.measuredRem || width !== this.measuredWidth) {
+      this.cardHeight = this.cardHeightPx();
+      this.measuredRem = rem;
+      this.measuredWidth = width;
+    }
+    const probe = this.cardHeight;
     this.columns = Math.max(1, Math.floor((width + gap) / (13 * rem + gap)));
     this.cardWidth = (width - gap * (this.columns - 1)) / this.columns;
     this.rowHeight = probe + gap;
