@@ -117,8 +117,7 @@ const hooks = {
   fill: fillCard,
   choose: (row: ViewRow) => {
     setView({ ...view, selected: row.facts.key });
-    // in one column the details sit above the cards: bring them into view
-    if (matchMedia('(max-width: 64rem)').matches) detailsPanel.scrollIntoView({ block: 'start' });
+    showDetailsFirst();
   },
   pick: (row: ViewRow) => togglePick(row),
   isChosen: (row: ViewRow) => view.selected === row.facts.key,
@@ -370,10 +369,16 @@ function relayout(): void {
   });
 }
 
-/** Bring the selected card into view (a link followed, or a page opened on one). */
+/** In one column the details sit above the cards: bring them into view. */
+function showDetailsFirst(): void {
+  if (!detailsPanel.hidden && matchMedia('(max-width: 64rem)').matches) detailsPanel.scrollIntoView({ block: 'start' });
+}
+
+/** Bring the selected card into view (a link followed, or a page opened on one), or its details in one column. */
 function revealSelected(focus: boolean): void {
   if (view.selected === null) return;
   if (!equilibria.reveal(view.selected, focus)) failures.reveal(view.selected, focus);
+  showDetailsFirst();
 }
 
 window.addEventListener('scroll', relayout, { passive: true });
