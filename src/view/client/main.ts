@@ -245,7 +245,7 @@ function showDetails(): void {
   const c = entry.certificate;
   const cells = entry.sides.map((s, i) => `<tr><td>${i + 1}</td><td>${s}</td><td>${num(entry.cellAreas[i], 6)}</td><td>${entry.pressures === null ? '–' : num(entry.pressures[i], 8)}</td></tr>`).join('');
   const t1 = entry.status === 'ok'
-    ? `<p>T1 neighbour through its shortest wall (${facts.shortestWall}): ${codeLink(facts.t1)}</p>`
+    ? `<p>T1 neighbour through its shortest wall (${facts.shortestWall}): ${facts.t1 === entry.code ? 'this arrangement again (the swap gives it back, relabelled)' : codeLink(facts.t1)}</p>`
     : `<p>Verdict: ${verdict(entry, facts.t1)}.</p>`;
   const facts3 = `${facts.threeConnected ? '3-connected' : 'not 3-connected'}, ${facts.lens ? 'with a lens' : 'no lens'}, ${cluster.cells} cells`;
   detailsPanel.innerHTML = `<h2 id="details-heading">${entry.rank === null ? '' : `#${entry.rank} `}${html(entry.id)} ${stability(entry)}</h2>
