@@ -132,6 +132,12 @@ describe('the viewer page of catalogues/equal-5.json in Chromium', () => {
     expect((await shownKeys(again.page)).equilibria).toEqual(after);
     expect(await again.page.inputValue('select[name=sort]')).toBe('sides');
     await again.page.close();
+    // a status this catalogue does not have (a link made for another file) shows every status
+    const other = await open('equal-5', '#status=cell-collapse');
+    const all = await shownKeys(other.page);
+    expect(all.equilibria.length + all.failures.length).toBe(45);
+    expect(await other.page.inputValue('select[name=status]')).toBe('all');
+    await other.page.close();
     await page.close();
   });
 

@@ -142,7 +142,6 @@ function showControls(): void {
   field<HTMLInputElement>('desc').checked = view.descending;
   const status = field<HTMLSelectElement>('status');
   status.value = view.status;
-  if (status.value !== view.status) status.value = 'all';
   field<HTMLInputElement>('stable').checked = view.stableOnly;
   field<HTMLSelectElement>('conn').value = view.connectivity;
   field<HTMLSelectElement>('lens').value = view.lens;
@@ -183,7 +182,9 @@ let shownKey = '';
 /** Take a new view: the fragment, the controls, the rows, the panels. */
 function setView(next: ViewState, fromFragment = false): void {
   const before = view;
-  view = next;
+  // a status no entry of this catalogue has (a link made for another file) shows every status
+  const statuses = [...field<HTMLSelectElement>('status').options].map((o) => o.value);
+  view = statuses.includes(next.status) ? next : { ...next, status: 'all' };
   const fragment = writeFragment(view);
   if (!fromFragment && location.hash.slice(1) !== fragment) history.replaceState(null, '', fragment === '' ? location.pathname + location.search : `#${fragment}`);
   showControls();
