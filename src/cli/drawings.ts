@@ -1,9 +1,11 @@
-// cli stage: contact sheets of catalogue entries (the drawings themselves: render/entry.ts).
+// cli stage: contact sheets of catalogue entries and their size limit (the drawings themselves: render/entry.ts).
 
 import type { CatalogueEntry } from '../catalogue/types.ts';
 import { entryDrawing } from '../render/entry.ts';
 import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
 import { UsageError } from '../errors.ts';
+
+export { entryDrawing, equilibriumDrawing } from '../render/entry.ts';
 
 /** Most drawings on the contact sheet of `rank --sheet` and `merge --sheet` (the top ranks, fewer with a smaller --top). */
 export const SHEET_LIMIT = 12;
@@ -17,8 +19,6 @@ export function checkSheetTop(top: number, topGiven: boolean, sheet: string | un
     throw new UsageError(`--top ${top} with --sheet is above ${SHEET_LIMIT} when expected at most ${SHEET_LIMIT} (the most drawings on a sheet).`);
   }
 }
-
-export { entryDrawing, equilibriumDrawing } from '../render/entry.ts';
 
 /** A contact sheet of catalogue entries with geometry, captioned with rank, id, perimeter and index. */
 export function entriesSheet(entries: CatalogueEntry[], title: string): string {
