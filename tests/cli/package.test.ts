@@ -23,8 +23,16 @@ describe('the packed package, installed', () => {
     // npm pack runs the build (prepare), so the tarball holds what the sources compile to now
     const tarball = execFileSync(npm, ['pack', '--silent', '--pack-destination', home], { cwd: root, encoding: 'utf8' }).trim().split('\n').pop()!;
     writeFileSync(join(home, 'package.json'), JSON.stringify({ name: 'user', version: '1.0.0', private: true, type: 'module' }));
-    execFileSync(npm, ['install', '--prefer-offline', '--no-audit', '--no-fund', '--silent', `./${tarball}`], { cwd: home, stdio: 'ignore' });
-  }, 240000);
+    // from npm's cache (npm ci filled it with every dependency); the registry only if the cache lacks one,
+    // and never waiting for ever
+    const install = (mode: string, timeout: number) =>
+      execFileSync(npm, ['install', mode, '--no-audit', '--no-fund', '--silent', `./${tarball}`], { cwd: home, stdio: 'ignore', timeout });
+    try {
+      install('--offline', 120000);
+    } catch {
+      install('--prefer-offline', 180000);
+    }
+  }, 360000);
 
   afterAll(() => {
     if (home !== '') rmSync(home, { recursive: true, force: true });
