@@ -30,7 +30,8 @@ function rounded(value: unknown): unknown {
 }
 
 /**
- * The atlas as JSON text: the query and summary pretty-printed, one sample per line, floats to 12
+ * The atlas as JSON text: the query on one line, the summary one field (or one class, one boundary) per
+ * line, one sample per line, floats to 12
  * significant digits, keys in a fixed order. Same atlas, same bytes. An unbounded reachable ratio
  * (least share 0) is written as null.
  */
@@ -56,7 +57,13 @@ export function atlasJson(atlas: Atlas): string {
     `  "format": ${JSON.stringify(ATLAS_FORMAT)},`,
     `  "version": ${ATLAS_VERSION},`,
     `  "query": ${JSON.stringify(query)},`,
-    `  "summary": ${JSON.stringify(summary, null, 2).split('\n').join('\n  ')},`,
+    '  "summary": {',
+    Object.entries(summary)
+      .map(([k, v]) => Array.isArray(v) && v.length > 0 && typeof v[0] === 'object' && !Array.isArray(v[0])
+        ? `    ${JSON.stringify(k)}: [\n${v.map((x) => `      ${JSON.stringify(x)}`).join(',\n')}\n    ]`
+        : `    ${JSON.stringify(k)}: ${JSON.stringify(v)}`)
+      .join(',\n'),
+    '  },',
     '  "samples": [',
     a.samples.map((s) => `    ${JSON.stringify(s)}`).join(',\n'),
     '  ]',
