@@ -87,7 +87,7 @@ describe('the packed package, installed', () => {
   it('the library and each stage import from plain Node', () => {
     const script = [
       "const all = await import('lather');",
-      "for (const s of ['maps', 'solver', 'catalogue', 'sweep', 'render']) await import('lather/' + s);",
+      "for (const s of ['maps', 'solver', 'catalogue', 'sweep', 'atlas', 'render']) await import('lather/' + s);",
       "const eq = all.relax(all.clusterFromCode('3:...b7a').map, new Float64Array([1, 2, 3]));",
       "console.log(JSON.stringify({ status: eq.status, k: [...all.enumerateClusters(4)].length }));",
     ].join('\n');
