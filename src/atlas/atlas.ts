@@ -157,11 +157,14 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   }
   const solved = await solveAll(blocks, workers, count, options.onProgress);
 
-  // classes: every candidate that wins or comes second somewhere, most wins first, then by key
+  // classes: every candidate that wins, comes second or is the best of another arrangement somewhere,
+  // most wins first, then by key
   const summaryOf = summaries();
   const wins = new Map<string, number>();
+  const otherOf = (s: SolvedSample): RankedCandidate | null => s.ranked.find((c) => c.code !== s.ranked[0].code) ?? null;
   for (const s of solved) {
-    for (const c of s.ranked.slice(0, 2)) if (!wins.has(classKey(c))) wins.set(classKey(c), 0);
+    const other = s.ranked.length > 0 ? otherOf(s) : null;
+    for (const c of [...s.ranked.slice(0, 2), ...(other === null ? [] : [other])]) if (!wins.has(classKey(c))) wins.set(classKey(c), 0);
     if (s.ranked.length > 0) wins.set(classKey(s.ranked[0]), (wins.get(classKey(s.ranked[0])) ?? 0) + 1);
   }
   const keys = [...wins.keys()].sort((a, b) => (wins.get(b) as number) - (wins.get(a) as number) || (a < b ? -1 : a > b ? 1 : 0));
@@ -175,9 +178,16 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   const samples: AtlasSample[] = solved.map((s) => {
     const winner = s.ranked.length > 0 ? placement(s.ranked[0]) : null;
     const runnerUp = s.ranked.length > 1 ? placement(s.ranked[1]) : null;
+    const other = winner === null ? null : otherOf(s);
     const sample: AtlasSample = {
       index: s.index, areas: s.areas, winner, runnerUp,
-      margin: winner !== null && runnerUp !== null ? (runnerUp.perimeter - winner.perimeter) / winner.perimeter : null,
+      // (candidates tied at rank's ORDER_DIGITS may differ in the last digits either way: a tie is a margin of 0)
+      margin: winner !== null && runnerUp !== null ? Math.max(0, (runnerUp.perimeter - winner.perimeter) / winner.perimeter) : null,
+      otherArrangement: winner === null || other === null ? null : {
+        class: classOf.get(classKey(other)) as number, id: other.id,
+        sidesByRank: byRank(summaryOf(other.code), other.assignment).sidesByRank, perimeter: other.perimeter,
+        margin: Math.max(0, (other.perimeter - winner.perimeter) / winner.perimeter),
+      },
       exhaustive: s.exhaustive, starts: { warm: s.warm, other: s.candidates - s.warm },
     };
     if (n === 4) sample.claim = claimAt(s.ranked, summaryOf);
@@ -196,7 +206,12 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
     };
   });
   let least: AtlasSample | null = null;
-  for (const s of samples) if (s.margin !== null && (least === null || s.margin < (least.margin as number))) least = s;
+  let leastOther: AtlasSample | null = null;
+  for (const s of samples) {
+    if (s.margin !== null && (least === null || s.margin < (least.margin as number))) least = s;
+    const m = s.otherArrangement?.margin;
+    if (m !== undefined && (leastOther === null || m < (leastOther.otherArrangement?.margin as number))) leastOther = s;
+  }
 
   // where the class changes: each sample against its nearest neighbour
   const { near, d2 } = nearestNeighbours(areas, n);
@@ -249,6 +264,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
     cells: n, seed: design.seed, minShare: design.minShare, reachableRatio: reachableRatio(n, design.minShare), largestRatio,
     samples, classes, noWinner: samples.filter((s) => s.winner === null).length,
     smallestMargin: least?.margin ?? null, smallestMarginAt: least?.index ?? null,
+    smallestArrangementMargin: leastOther?.otherArrangement?.margin ?? null, smallestArrangementMarginAt: leastOther?.index ?? null,
     changes: changes.map(([x, y]) => [x, y]), boundaries,
     exhaustive: samples.every((s) => s.exhaustive),
     candidates: solved[0].candidates,
@@ -259,7 +275,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
 
 /** The id ("n.k") of an arrangement, read off the samples. */
 function summaryOfId(solved: readonly SolvedSample[], code: string): string {
-  for (const s of solved) for (const c of s.ranked.slice(0, 2)) if (c.code === code) return c.id;
+  for (const s of solved) for (const c of s.ranked) if (c.code === code) return c.id;
   return '?';
 }
 
@@ -275,7 +291,7 @@ function cellAreas(c: RankedCandidate, at: readonly number[]): Float64Array {
  * at the located point to see whether a third class wins there. Null when a cannot be found again at x
  * or b at y (cold starts that miss the ranking's branch).
  */
-function locateBoundary(
+export function locateBoundary(
   x: AtlasSample, y: AtlasSample, a: RankedCandidate, b: RankedCandidate, tolerance: number, options: AtlasOptions,
   cache: Map<string, RankPlan>, classOf: ReadonlyMap<string, number>,
 ): AtlasBoundary | null {

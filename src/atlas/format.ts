@@ -47,6 +47,8 @@ export function atlasJson(atlas: Atlas): string {
     noWinner: a.noWinner,
     smallestMargin: a.smallestMargin,
     smallestMarginAt: a.smallestMarginAt,
+    smallestArrangementMargin: a.smallestArrangementMargin,
+    smallestArrangementMarginAt: a.smallestArrangementMarginAt,
     classes: a.classes,
     changes: a.changes,
     boundaries: a.boundaries,

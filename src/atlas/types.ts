@@ -67,6 +67,11 @@ export interface AtlasSample {
   runnerUp: AtlasPlacement | null;
   /** (runner-up perimeter - winner perimeter) / winner perimeter; null without both. */
   margin: number | null;
+  /**
+   * The best certified candidate of another arrangement than the winner's (the runner-up may be the winner's
+   * arrangement with two areas exchanged), and its relative gap to the winner; null when there is none.
+   */
+  otherArrangement: { class: number; id: string; sidesByRank: number[]; perimeter: number; margin: number } | null;
   /** Whether every candidate was relaxed (rank's budget; false means a local search per arrangement). */
   exhaustive: boolean;
   /** Candidates relaxed from the nearest solved sample's equilibrium, and the others. */
@@ -142,6 +147,9 @@ export interface Atlas {
   /** Smallest margin over all samples, and where. */
   smallestMargin: number | null;
   smallestMarginAt: number | null;
+  /** Smallest gap from the winner to the best candidate of another arrangement, and where. */
+  smallestArrangementMargin: number | null;
+  smallestArrangementMarginAt: number | null;
   /** Pairs of neighbouring samples (each sample and its nearest) with different winner classes. */
   changes: [number, number][];
   /** Boundaries located (four cells), at most maxBoundaries of the changes, nearest pairs first. */

@@ -60,6 +60,14 @@ export function atlasTable(a: Atlas): string[] {
         `winner ${s.winner?.id} ${s.winner?.sidesByRank.join('')}, runner-up ${s.runnerUp?.id} ${s.runnerUp?.sidesByRank.join('')}`,
     );
   } else lines.push('smallest margin: none (no sample has two certified candidates)');
+  if (a.smallestArrangementMarginAt !== null) {
+    const s = a.samples[a.smallestArrangementMarginAt];
+    const o = s.otherArrangement as NonNullable<AtlasSample['otherArrangement']>;
+    lines.push(
+      `closest other arrangement: margin ${value(a.smallestArrangementMargin)} at sample ${s.index} (areas ${areasText(s)}): ` +
+        `winner ${s.winner?.id} ${s.winner?.sidesByRank.join('')}, best of another arrangement ${o.id} ${o.sidesByRank.join('')}`,
+    );
+  }
   lines.push(`class changes between a sample and its nearest: ${a.changes.length} pairs`);
   if (a.cells === 4) {
     const confirmed = a.boundaries.filter((b) => b.confirmed).length;
@@ -142,13 +150,19 @@ function triangleWinners(points: { w: number[]; cls: number }[], reach: number, 
 const SLICES = [0.3, 0.4, 0.55, 0.75];
 const SLAB = 0.025;
 
-function marginHistogram(a: Atlas): string {
-  const margins = a.samples.map((s) => s.margin ?? 0);
-  const none = margins.filter((m) => !(m > 0)).length;
-  return renderHistogram({
-    values: margins, xTitle: 'margin: (runner-up - winner) / winner perimeter', title: 'margins',
-    note: none > 0 ? `${none} samples without a positive margin left out` : `${a.samples.length} samples`,
-  });
+/** Histograms of the margins over the runner-up and over the best candidate of another arrangement. */
+function marginHistograms(a: Atlas): string[] {
+  const one = (margins: number[], xTitle: string, title: string): string => {
+    const none = margins.filter((m) => !(m > 0)).length;
+    return renderHistogram({
+      values: margins, xTitle, title, widthPx: 480,
+      note: none > 0 ? `${none} samples without a positive margin left out` : `${margins.length} samples`,
+    });
+  };
+  return [
+    one(a.samples.map((s) => s.margin ?? 0), '(runner-up - winner) / winner perimeter', 'margin over the runner-up'),
+    one(a.samples.map((s) => s.otherArrangement?.margin ?? 0), '(best other arrangement - winner) / winner perimeter', 'margin over any other arrangement'),
+  ];
 }
 
 /** The figure `lather atlas --plot` writes. */
@@ -174,10 +188,10 @@ export function atlasPlot(a: Atlas): string {
         grid: { kind: 'triangle', divisions: DIVISIONS, shareNames: n === 3 ? ['a', 'b', 'c'] : ['b', 'c', 'd'] },
         arrangements, winners: triangleWinners(points, 3 / DIVISIONS, (w) => Math.max(...w) <= limit + 1e-12),
         title: s === null ? `shares a : b : c (${slab.length} samples)` : `largest share a = ${s} ± ${SLAB} (${slab.length} samples); b : c : d`,
-        sizePx: 300, thumbPx: 36, legend: k === slices.length - 1, noWinnerLabel,
+        sizePx: 300, thumbPx: 36, legend: k === Math.min(1, slices.length - 1), noWinnerLabel,
       }));
     });
-    const rows = n === 3 ? [[maps[0]], [marginHistogram(a)]] : [[maps[0], maps[1]], [maps[2], maps[3]], [marginHistogram(a)]];
+    const rows = n === 3 ? [[maps[0]], marginHistograms(a)] : [[maps[0], maps[1]], [maps[2], maps[3]], marginHistograms(a)];
     return renderPanels(rows, { title });
   }
   const [i, j] = tellingPair(a);
@@ -210,7 +224,7 @@ export function atlasPlot(a: Atlas): string {
     grid: { kind: 'rectangle', xs: centre(0), ys: centre(1), xParameter: `share of the area of rank ${i + 1}`, yParameter: `share of the area of rank ${j + 1}`, logX: true, logY: true },
     arrangements, winners: majority, title: `winner class by bin (majority of its samples)`, sizePx: 420, thumbPx: 36, noWinnerLabel,
   });
-  return renderPanels([[map], [marginHistogram(a)]], { title });
+  return renderPanels([[map], marginHistograms(a)], { title });
 }
 
 /**

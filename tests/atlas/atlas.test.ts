@@ -2,7 +2,7 @@
 // its design, JSON and schema.
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { byRank, runAtlas, satisfiesClaim } from '../../src/atlas/atlas.ts';
+import { byRank, locateBoundary, runAtlas, satisfiesClaim } from '../../src/atlas/atlas.ts';
 import { DEFAULT_MIN_SHARE, atlasSamples, compactOrder, reachableRatio } from '../../src/atlas/design.ts';
 import { atlasJson, readAtlas } from '../../src/atlas/format.ts';
 import { rankAreas } from '../../src/catalogue/rank.ts';
@@ -144,4 +144,25 @@ describe('atlas file', () => {
     expect(() => readAtlas(one.replace('"version": 1', '"version": 2'))).toThrow(/Got v2 atlas/);
     expect(() => readAtlas('{')).toThrow(CatalogueFormatError);
   }, 120000);
+});
+
+describe('locateBoundary', () => {
+  it('locateBoundary finds the exchange of two areas across the central wall where the two areas are equal', () => {
+    // along the segment the areas of index 1 and 2 trade places: at t = 1/2 they are equal and the two
+    // assignments are mirror images of each other, so their perimeters are equal there and nowhere else on
+    // the segment (symmetry; common practice, no source)
+    const x = { index: 0, areas: [1.6, 1.0, 0.8, 0.6], winner: { class: 0 } } as unknown as Parameters<typeof locateBoundary>[0];
+    const y = { index: 1, areas: [1.6, 0.8, 1.0, 0.6], winner: { class: 1 } } as unknown as Parameters<typeof locateBoundary>[1];
+    const a = { code: STANDARD_FOUR, id: '4.9', assignment: [0, 2, 1, 3], perimeter: 0, index: 0, zeroModes: 0 };
+    const b = { code: STANDARD_FOUR, id: '4.9', assignment: [0, 1, 2, 3], perimeter: 0, index: 0, zeroModes: 0 };
+    const classOf = new Map([[`${STANDARD_FOUR} 0,2,1,3`, 0], [`${STANDARD_FOUR} 0,1,2,3`, 1]]);
+    const found = locateBoundary(x, y, a, b, 1e-6, { cells: 4, samples: 2 }, new Map(), classOf);
+    expect(found).not.toBeNull();
+    expect(Math.abs((found?.t ?? 0) - 0.5)).toBeLessThan(1e-6);
+    const [lo, hi] = found?.bracket ?? [0, 1];
+    expect(hi - lo).toBeLessThanOrEqual(1e-6);
+    expect(found?.kind).toBe('crossing');
+    expect(found?.confirmed).toBe(true);
+    expect(found?.perimeters[0]).toBeCloseTo(found?.perimeters[1] as number, 8);
+  }, 60000);
 });
