@@ -152,7 +152,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
     const indices = [...order.subarray(start, Math.min(count, start + BLOCK))];
     blocks.push({
       cells: n, indices, areas: indices.map((k) => [...areas.subarray(k * n, (k + 1) * n)]),
-      warmStart: options.warmStart ?? true, newton: options.newton,
+      warmStart: options.warmStart ?? false, newton: options.newton,
     });
   }
   const solved = await solveAll(blocks, workers, count, options.onProgress);

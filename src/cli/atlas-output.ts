@@ -41,7 +41,7 @@ export function atlasTable(a: Atlas): string[] {
     `${a.cells} cells, ${K} samples of the simplex of areas (seed ${a.seed}; least share ${a.minShare}: ${ratio} reachable, ` +
       `largest ratio sampled 1:${value(a.largestRatio, 5)}); ${a.candidates} candidates per sample, ` +
       `${a.exhaustive ? 'exhaustive' : 'NOT exhaustive at some samples (local search within rank\'s budget)'}; ` +
-      `${(100 * a.warmShare).toFixed(1)}% of relaxations warm from the nearest solved sample`,
+      (a.warmShare > 0 ? `${(100 * a.warmShare).toFixed(1)}% of relaxations warm from the nearest solved sample` : 'rank\'s own starts at every sample'),
     '',
     'winner classes (arrangement + area-rank pattern; rank 1 = largest area, 0 = the outside)',
   ];

@@ -43,7 +43,7 @@ export function addAtlasCommand(program: Command): void {
     .option('--min-share <m>', `least share of the total area of any cell (default ${DEFAULT_MIN_SHARE}: ratios beyond 1:9000 reachable)`, shareOption)
     .option('--workers <n>', 'worker threads (the atlas does not depend on them)', wholeNumber(1), 1)
     .option('--boundaries <k>', 'most class boundaries located by bisection (four cells)', wholeNumber(0), 100)
-    .option('--no-warm', 'relax every candidate from its own start, not from the nearest solved sample')
+    .option('--warm', 'start each candidate from its equilibrium at the nearest solved sample (measured no faster; off: rank\'s own starts)')
     .option('--json [file]', 'write every sample and the summary as a lather-atlas JSON file (or to stdout instead of the table)')
     .option('--plot <file.svg>', 'draw the winner classes (slices of the simplex for four cells) and a histogram of margins')
     .action(async (cells: number, opts) => {
@@ -56,7 +56,7 @@ export function addAtlasCommand(program: Command): void {
       const text = await withRunFiles([], declare, async (outputs) => {
         let progress: Progress | null = null;
         const atlas = await runAtlas({
-          ...design, workers: opts.workers, warmStart: opts.warm !== false, maxBoundaries: opts.boundaries,
+          ...design, workers: opts.workers, warmStart: opts.warm === true, maxBoundaries: opts.boundaries,
           onProgress: (done, total) => {
             progress ??= startProgress('atlas', total);
             progress.update(done);

@@ -6,7 +6,7 @@ import { PeakMemory, stats } from './common.ts';
 
 const large = process.env.BENCH_LARGE === '1';
 const CASES = [
-  { cells: 4, samples: large ? 1000 : 96, workers: [1, 2], cold: true, target: { samples: 10000, seconds: 600 } },
+  { cells: 4, samples: large ? 1000 : 128, workers: [1, 2], cold: true, target: { samples: 10000, seconds: 600 } },
   { cells: 5, samples: large ? 64 : 8, workers: [1], cold: false, target: { samples: 1000, seconds: null } },
 ];
 const memory = new PeakMemory();
@@ -14,8 +14,8 @@ let sink = 0;
 await runAtlas({ cells: 4, samples: 4, maxBoundaries: 0 }); // warm up
 for (const { cells, samples, workers, cold, target } of CASES) {
   const runs: { label: string; warmStart: boolean; workers: number }[] = [
-    ...workers.map((w) => ({ label: `warm starts, ${w} worker${w > 1 ? 's' : ''}`, warmStart: true, workers: w })),
-    ...(cold ? [{ label: 'no warm starts, 1 worker', warmStart: false, workers: 1 }] : []),
+    ...workers.map((w) => ({ label: `rank's own starts, ${w} worker${w > 1 ? 's' : ''}`, warmStart: false, workers: w })),
+    ...(cold ? [{ label: 'warm from the nearest solved sample, 1 worker', warmStart: true, workers: 1 }] : []),
   ];
   for (const run of runs) {
     const t0 = performance.now();
