@@ -2,7 +2,7 @@
 // figure of slices of the simplex (four cells), the whole triangle (three), or the two most telling
 // coordinates (two, five and more), with a histogram of margins.
 
-import type { Atlas, AtlasClass, AtlasSample } from '../atlas/types.ts';
+import type { Atlas, AtlasSample } from '../atlas/types.ts';
 import { clusterFromCode } from '../maps/cluster.ts';
 import { relax } from '../solver/newton.ts';
 import { renderRegionMap, type RegionArrangement } from '../render/region-map.ts';
@@ -22,11 +22,6 @@ function columns(rows: string[][], right: ReadonlySet<number>): string[] {
 /** "0-1 1-2 ..." of walls by rank. */
 function wallsText(walls: readonly [number, number][]): string {
   return walls.map(([a, b]) => `${a}-${b}`).join(' ');
-}
-
-/** Short label of a class: id, sides by rank. */
-function classLabel(c: AtlasClass): string {
-  return `${c.id} sides by rank ${c.sidesByRank.join('')}`;
 }
 
 function areasText(s: AtlasSample): string {
@@ -101,7 +96,7 @@ function legendOf(a: Atlas): RegionArrangement[] {
     for (const s of a.samples) {
       if (s.winner?.class === c.class && (best === null || (s.margin ?? 0) > (best.margin ?? 0))) best = s;
     }
-    const label = `${classLabel(c)} (${(100 * c.share).toFixed(1)}%)`;
+    const label = `${c.id}, sides by rank ${c.sidesByRank.join('')}, ${(100 * c.share).toFixed(1)}%`;
     if (best === null) return { key: `k${c.class}`, label };
     const at = best;
     const map = clusterFromCode(c.code).map;

@@ -56,7 +56,8 @@ export function renderHistogram(options: HistogramOptions): string {
   const plotTop = 14 + titleH + noteH;
   const plotBottom = height - 50;
   const xAxis = makeAxis(10 ** (lo / perDecade), 10 ** (hi / perDecade), true, left, right);
-  const yAxis = makeAxis(0, niceDomain(0, top, 5)[1], false, plotBottom, plotTop, 5);
+  // counts are whole numbers: at least 5 on the axis keeps its ticks whole
+  const yAxis = makeAxis(0, niceDomain(0, Math.max(5, top), 5)[1], false, plotBottom, plotTop, 5);
   const out: string[] = [
     `<svg xmlns="http://www.w3.org/2000/svg" width="${n(width)}" height="${n(height)}" viewBox="0 0 ${n(width)} ${n(height)}">`,
     `<rect width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`,

@@ -45,7 +45,7 @@ describe('lather atlas', () => {
     expect((doc.samples as unknown[]).length).toBe(6);
     const picture = readFileSync(svg, 'utf8');
     expect(picture.startsWith('<svg xmlns="http://www.w3.org/2000/svg"')).toBe(true);
-    expect(picture).toContain('3.3 sides by rank 333');
+    expect(picture).toContain('3.3, sides by rank 333, 100.0%');
     const again = await lather(['atlas', '3', '--samples', '6', '--json']);
     expect(again.stdout).toBe(readFileSync(json, 'utf8'));
   }, 60000);
