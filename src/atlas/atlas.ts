@@ -5,7 +5,7 @@
 
 import { eventLoopTurns } from '../event-loop.ts';
 import { withPool } from '../catalogue/pool.ts';
-import type { RankPlan } from '../catalogue/rank.ts';
+import { type RankPlan, workerCount } from '../catalogue/rank.ts';
 import { clusterFromCode } from '../maps/cluster.ts';
 import { type ClusterSummary, summarizeCluster } from '../maps/describe.ts';
 import { relax, relaxFrom } from '../solver/newton.ts';
@@ -137,7 +137,7 @@ function nearestNeighbours(areas: Float64Array, n: number): { near: Int32Array; 
 export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   const design = checkDesign(options);
   const n = design.cells;
-  const workers = Math.max(1, Math.floor(options.workers ?? 1));
+  const workers = workerCount({ workers: options.workers });
   const maxBoundaries = options.maxBoundaries ?? 200;
   if (!(Number.isInteger(maxBoundaries) && maxBoundaries >= 0)) {
     throw new UsageError(`Most boundaries is ${maxBoundaries} when expected a whole number of at least 0.`);

@@ -9,9 +9,11 @@ import { renderRegionMap, type RegionArrangement } from '../render/region-map.ts
 import { renderHistogram } from '../render/histogram.ts';
 import { renderPanels } from '../render/panels.ts';
 import { triangleSamples } from '../sweep/triangle-grid.ts';
+import { tableNumber } from './table.ts';
+import { formatValue } from '../render/format.ts';
 
 function value(x: number | null, digits = 4): string {
-  return x === null ? '-' : String(Number(x.toPrecision(digits)));
+  return x === null ? '-' : tableNumber(x, digits);
 }
 
 function columns(rows: string[][], right: ReadonlySet<number>): string[] {
@@ -31,10 +33,10 @@ function areasText(s: AtlasSample): string {
 /** The lines `lather atlas` prints. */
 export function atlasTable(a: Atlas): string[] {
   const K = a.samples.length;
-  const ratio = Number.isFinite(a.reachableRatio) ? `1:${value(a.reachableRatio, 5)}` : 'any ratio';
+  const ratio = Number.isFinite(a.reachableRatio) ? `1:${formatValue(a.reachableRatio, 5)}` : 'any ratio';
   const lines = [
     `${a.cells} cells, ${K} samples of the simplex of areas (seed ${a.seed}; least share ${a.minShare}: ${ratio} reachable, ` +
-      `largest ratio sampled 1:${value(a.largestRatio, 5)}); ${a.candidates} candidates per sample, ` +
+      `largest ratio sampled 1:${formatValue(a.largestRatio, 5)}); ${a.candidates} candidates per sample, ` +
       `${a.exhaustive ? 'exhaustive' : 'NOT exhaustive at some samples (local search within rank\'s budget)'}; ` +
       (a.warmShare > 0 ? `${(100 * a.warmShare).toFixed(1)}% of relaxations warm from the nearest solved sample` : 'rank\'s own starts at every sample'),
     '',

@@ -4,6 +4,7 @@ import { type Command, InvalidArgumentError } from 'commander';
 import { runAtlas } from '../atlas/atlas.ts';
 import { ATLAS_MAX_CELLS, ATLAS_MAX_SAMPLES, ATLAS_MIN_CELLS, DEFAULT_MIN_SHARE, checkDesign } from '../atlas/design.ts';
 import { atlasJson } from '../atlas/format.ts';
+import { WORKER_LIMIT } from '../catalogue/rank.ts';
 import { atlasPlot, atlasTable } from './atlas-output.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { wholeNumber } from './parse.ts';
@@ -17,13 +18,7 @@ function cellsArgument(text: string): number {
   return v;
 }
 
-function samplesOption(text: string): number {
-  const v = Number(text.trim());
-  if (!/^[0-9]+$/.test(text.trim()) || v < 1 || v > ATLAS_MAX_SAMPLES) {
-    throw new InvalidArgumentError(`Samples "${text}" is not valid when expected a whole number from 1 to ${ATLAS_MAX_SAMPLES}.`);
-  }
-  return v;
-}
+const samplesOption = wholeNumber(1, ATLAS_MAX_SAMPLES, 'Samples');
 
 function shareOption(text: string): number {
   const v = Number(text.trim());
@@ -39,10 +34,10 @@ export function addAtlasCommand(program: Command): void {
     .command('atlas')
     .argument('<cells>', `number of cells (${ATLAS_MIN_CELLS} to ${ATLAS_MAX_CELLS})`, cellsArgument)
     .requiredOption('--samples <k>', 'samples of the simplex of areas', samplesOption)
-    .option('--seed <s>', 'seed of the design', wholeNumber(0), 1)
+    .option('--seed <s>', 'seed of the design', wholeNumber(0, 0xffffffff, 'Seed'), 1)
     .option('--min-share <m>', `least share of the total area of any cell (default ${DEFAULT_MIN_SHARE}: ratios beyond 1:9000 reachable)`, shareOption)
-    .option('--workers <n>', 'worker threads (the atlas does not depend on them)', wholeNumber(1), 1)
-    .option('--boundaries <k>', 'most class boundaries located by bisection (four cells)', wholeNumber(0), 100)
+    .option('--workers <n>', `worker threads, at most ${WORKER_LIMIT} (the atlas does not depend on them)`, wholeNumber(1, WORKER_LIMIT, 'Workers'), 1)
+    .option('--boundaries <k>', 'most class boundaries located by bisection (four cells)', wholeNumber(0, undefined, 'Boundaries'), 100)
     .option('--warm', 'start each candidate from its equilibrium at the nearest solved sample (measured no faster; off: rank\'s own starts)')
     .option('--json [file]', 'write every sample and the summary as a lather-atlas JSON file (or to stdout instead of the table)')
     .option('--plot <file.svg>', 'draw the winner classes (slices of the simplex for four cells) and a histogram of margins')

@@ -1,4 +1,4 @@
-// cli stage: the `lather` program; the verbs are list, relax, rank, merge, draw, show, sweep and atlas. Each verb's
+// cli stage: the `lather` program; the verbs are list, relax, rank, merge, draw, show, view, sweep and atlas. Each verb's
 // module (and the heavy libraries it needs) is imported only when that verb runs, so `lather --version`
 // or `lather list 3` start in a fraction of the time the whole program would take to load.
 
