@@ -36,6 +36,8 @@ describe('the packed package, installed', () => {
     expect(files).toContain(join('dist', 'cli', 'lather.js'));
     expect(files).toContain(join('dist', 'index.d.ts'));
     expect(files).toContain(join('catalogues', 'catalogue.schema.json'));
+    expect(files).toContain(join('catalogues', 'atlas.schema.json'));
+    expect(files).toContain(join('dist', 'atlas', 'worker.js')); // the atlas's pool runs it
     expect(files.filter((f) => f.endsWith('.ts') && !f.endsWith('.d.ts'))).toEqual([]);
     // tsx and @types/* are for development only (the requirement)
     const manifest = JSON.parse(readFileSync(join(pkg, 'package.json'), 'utf8'));
