@@ -26,6 +26,11 @@ export interface ClusterTask {
   seed: number;
   /** Whether to start each candidate from the previous certified one. @default true */
   warmStart?: boolean;
+  /**
+   * Certified equilibria of some candidates at nearby areas (keyed by the class sequence joined with
+   * commas), each tried as that candidate's start before anything else ('all' mode). @default none
+   */
+  starts?: ReadonlyMap<string, Equilibrium>;
   /** Options passed to the relaxer. */
   newton?: NewtonOptions;
 }
@@ -61,7 +66,7 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   };
   if (task.mode === 'all') {
     for (const s of orbitAssignments(task.classes, group)) {
-      const r = solve(s, previous);
+      const r = solve(s, task.starts?.get(s.join(',')) ?? previous);
       if (r.equilibrium.status === 'ok') previous = r.equilibrium;
     }
     return out;

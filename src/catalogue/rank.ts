@@ -11,6 +11,7 @@ import { rootedMapCount } from '../maps/count.ts';
 import { CODE_CELL_LIMIT } from '../maps/code.ts';
 import { countText, durationText, estimateClusterCount } from '../maps/estimate.ts';
 import { UsageError } from '../errors.ts';
+import { withPool } from './pool.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import { type AreaClasses, areaClasses, orbitCount, userIndices } from './assign.ts';
 import { type CandidateResult, type ClusterTask, evaluateCluster } from './evaluate.ts';
@@ -256,17 +257,7 @@ export async function runTasks(
     }
     return out;
   }
-  const { Piscina } = await import('piscina');
-  // compiled (dist/): the worker is plain JavaScript; from the sources (tests, development) tsx runs it,
-  // resolved from here so the pool works whatever the current directory is
-  const compiled = !import.meta.url.endsWith('.ts');
-  const pool = new Piscina({
-    filename: new URL(compiled ? './worker.js' : './worker.ts', import.meta.url).href,
-    execArgv: compiled ? [] : ['--import', import.meta.resolve('tsx')],
-    minThreads: workers,
-    maxThreads: workers,
-  });
-  try {
+  return withPool(import.meta.url, 'worker', workers, async (run) => {
     // batches of about equal work keep messaging cheap and the threads busy
     const perBatch = Math.max(1, Math.ceil(total / (workers * 32)));
     const batches: ClusterTask[][] = [];
@@ -284,15 +275,13 @@ export async function runTasks(
     if (current.length > 0) batches.push(current);
     const parts = await Promise.all(
       batches.map(async (b) => {
-        const r = (await pool.run(b)) as CandidateResult[][];
+        const r = (await run(b)) as CandidateResult[][];
         r.forEach(report);
         return r;
       }),
     );
     return parts.flat();
-  } finally {
-    await pool.destroy();
-  }
+  });
 }
 
 /** Significant digits perimeters are compared at, so rounding noise never reorders equal perimeters. */

@@ -1,4 +1,4 @@
-// cli stage: the `lather` program; the verbs are list, relax, rank, sweep, draw and show. Each verb's
+// cli stage: the `lather` program; the verbs are list, relax, rank, merge, draw, show, view, sweep and atlas. Each verb's
 // module (and the heavy libraries it needs) is imported only when that verb runs, so `lather --version`
 // or `lather list 3` start in a fraction of the time the whole program would take to load.
 
@@ -56,6 +56,11 @@ const VERBS: readonly Verb[] = [
     name: 'sweep',
     summary: 'which arrangement wins as the areas change: along a path, over a grid or over a triangle of shares',
     load: async () => (await import('./sweep.ts')).addSweepCommand,
+  },
+  {
+    name: 'atlas',
+    summary: 'which arrangement wins over the whole simplex of area ratios, sampled: winner classes by area rank, margins, boundaries',
+    load: async () => (await import('./atlas.ts')).addAtlasCommand,
   },
 ];
 

@@ -74,6 +74,10 @@ export interface RegionMapOptions {
   readonly thumbPx?: number;
   /** Decimals of every coordinate (pixel units). @default 2 */
   readonly digits?: number;
+  /** Draw the legend beside the map (panels of one figure may share one). @default true */
+  readonly legend?: boolean;
+  /** Legend text of the places with no winner. @default 'no certified winner' */
+  readonly noWinnerLabel?: string;
 }
 
 /** A grid cell on screen: its polygon (pixels) and its neighbours with the shared edge. */
@@ -214,7 +218,7 @@ export function renderRegionMap(options: RegionMapOptions): string {
   const rowH = Math.max(thumbPx + 6, 22);
   const legend: string[] = [`<g class="legend" font-family="sans-serif" font-size="11" fill="${INK}">`];
   const rows: [string, string, ClusterDrawing | undefined][] = arrangements.map((a, k) => [fillOf(a.key), `${k + 1}  ${a.label}`, a.drawing]);
-  if (winners.includes(null)) rows.push([NO_WINNER_FILL, 'no certified winner', undefined]);
+  if (winners.includes(null)) rows.push([NO_WINNER_FILL, options.noWinnerLabel ?? 'no certified winner', undefined]);
   const textX = arrangements.some((a) => a.drawing !== undefined) ? 36 + thumbPx : 28;
   rows.forEach(([fill, label, drawing], k) => {
     const y = top + k * rowH + rowH / 2;
@@ -223,9 +227,10 @@ export function renderRegionMap(options: RegionMapOptions): string {
     legend.push(`<text x="${n(legendX + textX)}" y="${n(y + 4)}">${escapeXml(label)}</text>`);
   });
   legend.push('</g>');
+  const withLegend = options.legend ?? true;
 
-  const width = legendX + 240;
-  const height = Math.max(top + mapH + (grid.kind === 'rectangle' ? 52 : 24), top + rows.length * rowH + 16);
+  const width = withLegend ? legendX + 240 : left + mapW + 40;
+  const height = Math.max(top + mapH + (grid.kind === 'rectangle' ? 52 : 24), withLegend ? top + rows.length * rowH + 16 : 0);
   const head = [
     `<svg xmlns="http://www.w3.org/2000/svg" width="${n(width)}" height="${n(height)}" viewBox="0 0 ${n(width)} ${n(height)}">`,
     `<rect width="${n(width)}" height="${n(height)}" fill="#ffffff"/>`,
@@ -233,7 +238,7 @@ export function renderRegionMap(options: RegionMapOptions): string {
   if (options.title !== undefined) {
     head.push(`<text class="title" x="${n(left + mapW / 2)}" y="${n(16 + 17)}" font-family="sans-serif" font-size="15" font-weight="bold" text-anchor="middle" fill="${INK}">${escapeXml(options.title)}</text>`);
   }
-  return `${[...head, ...out, axes, ...legend, '</svg>'].join('\n')}\n`;
+  return `${[...head, ...out, axes, ...(withLegend ? legend : []), '</svg>'].join('\n')}\n`;
 }
 
 function pairs(polygon: number[], n: (v: number) => string): string {

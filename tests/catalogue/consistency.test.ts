@@ -95,7 +95,7 @@ describe('readCatalogue: consistency after the schema', () => {
   });
 
   it('readCatalogue accepts every committed catalogue in catalogues/', () => {
-    const files = readdirSync(CATALOGUES).filter((f) => f.endsWith('.json') && f !== 'catalogue.schema.json');
+    const files = readdirSync(CATALOGUES).filter((f) => f.endsWith('.json') && !f.endsWith('.schema.json'));
     expect(files.length).toBeGreaterThanOrEqual(12);
     for (const file of files) {
       const text = readFileSync(new URL(file, CATALOGUES), 'utf8');

@@ -44,6 +44,8 @@ describe('the packed package, installed', () => {
     expect(files).toContain(join('dist', 'cli', 'lather.js'));
     expect(files).toContain(join('dist', 'index.d.ts'));
     expect(files).toContain(join('catalogues', 'catalogue.schema.json'));
+    expect(files).toContain(join('catalogues', 'atlas.schema.json'));
+    expect(files).toContain(join('dist', 'atlas', 'worker.js')); // the atlas's pool runs it
     expect(files.filter((f) => f.endsWith('.ts') && !f.endsWith('.d.ts'))).toEqual([]);
     // tsx and @types/* are for development only (the requirement)
     const manifest = JSON.parse(readFileSync(join(pkg, 'package.json'), 'utf8'));
@@ -95,7 +97,7 @@ describe('the packed package, installed', () => {
   it('the library and each stage import from plain Node', () => {
     const script = [
       "const all = await import('lather');",
-      "for (const s of ['maps', 'solver', 'catalogue', 'sweep', 'render']) await import('lather/' + s);",
+      "for (const s of ['maps', 'solver', 'catalogue', 'sweep', 'atlas', 'render']) await import('lather/' + s);",
       "const eq = all.relax(all.clusterFromCode('3:...b7a').map, new Float64Array([1, 2, 3]));",
       "console.log(JSON.stringify({ status: eq.status, k: [...all.enumerateClusters(4)].length }));",
     ].join('\n');

@@ -1,0 +1,133 @@
+// atlas stage: rank every candidate at each sample of a block, as `rank` does (planRanking -> evaluateCluster
+// -> assembleCatalogue), each candidate warm from its equilibrium at the nearest sample solved before it.
+//
+// A block is the unit of work of a worker thread; its result depends only on the block (the samples in
+// it and their order), never on the number of workers, so an atlas is the same with one worker or many.
+
+import { areaClasses } from '../catalogue/assign.ts';
+import { evaluateCluster } from '../catalogue/evaluate.ts';
+import { type RankPlan, assembleCatalogue, planRanking, unrankedEntries } from '../catalogue/rank.ts';
+import type { CatalogueEntry } from '../catalogue/types.ts';
+import type { NewtonOptions } from '../solver/options.ts';
+import type { Equilibrium } from '../solver/result.ts';
+
+/** Samples solved before are searched for the nearest among the last this many (memory stays bounded). */
+const WINDOW = 12;
+
+/** A block of samples, solved in order. */
+export interface AtlasBlock {
+  cells: number;
+  /** Design index of each sample. */
+  indices: number[];
+  /** Areas of each sample, largest first. */
+  areas: number[][];
+  warmStart: boolean;
+  newton?: NewtonOptions;
+}
+
+/** One certified or failed candidate at a sample, reduced to what the atlas keeps. */
+export interface RankedCandidate {
+  code: string;
+  id: string;
+  /** Index into the sample's areas (largest first) of the area in cell i + 1. */
+  assignment: number[];
+  perimeter: number;
+  index: number;
+  zeroModes: number;
+}
+
+/** What a block gives back per sample: the certified candidates in ranking order. */
+export interface SolvedSample {
+  index: number;
+  areas: number[];
+  ranked: RankedCandidate[];
+  exhaustive: boolean;
+  candidates: number;
+  warm: number;
+}
+
+/** The plan of a ranking at `areas`, from a cached plan with the same pattern of equal areas. */
+export function planAt(areas: readonly number[], cache: Map<string, RankPlan>): RankPlan {
+  const classes = areaClasses([...areas]);
+  const pattern = classes.multiplicity.join(',');
+  let base = cache.get(pattern);
+  if (base === undefined) {
+    base = planRanking(areas);
+    cache.set(pattern, base);
+  }
+  // the arrangements, their candidates and the budget depend on the pattern of equal areas only
+  return {
+    ...base,
+    query: { ...base.query, areas: [...areas] },
+    classes,
+    tasks: base.tasks.map((t) => ({ ...t, classes })),
+  };
+}
+
+/** The certified entries of a catalogue, in its ranking order, reduced. */
+function rankedOf(entries: readonly CatalogueEntry[]): RankedCandidate[] {
+  const out: RankedCandidate[] = [];
+  for (const e of entries) {
+    if (e.rank === null || e.perimeter === null) break;
+    out.push({ code: e.code, id: e.id, assignment: e.assignment, perimeter: e.perimeter, index: e.index ?? 0, zeroModes: e.zeroModes ?? 0 });
+  }
+  return out;
+}
+
+/** Rank every candidate at one sample; `starts` (per task) are the warm starts. */
+export function rankSample(
+  areas: readonly number[], cache: Map<string, RankPlan>, newton: NewtonOptions | undefined,
+  starts: ReadonlyMap<string, Equilibrium>[] | null,
+): { plan: RankPlan; ranked: RankedCandidate[]; exhaustive: boolean; states: Map<string, Equilibrium>[]; warm: number } {
+  const plan = planAt(areas, cache);
+  let warm = 0;
+  const results = plan.tasks.map((t, k) => {
+    const task = { ...t, newton, starts: starts?.[k] };
+    if (starts !== null) warm += Math.min(starts[k].size, plan.work[k]);
+    return evaluateCluster(task);
+  });
+  const catalogue = assembleCatalogue(plan, results.flatMap((list, k) => unrankedEntries(plan, k, list)));
+  const states = results.map((list) => {
+    const m = new Map<string, Equilibrium>();
+    for (const r of list) {
+      if (r.equilibrium.status === 'ok') m.set(r.assignment.join(','), r.equilibrium);
+    }
+    return m;
+  });
+  return { plan, ranked: rankedOf(catalogue.entries), exhaustive: catalogue.counts.exhaustive, states, warm };
+}
+
+function distance2(a: readonly number[], b: readonly number[]): number {
+  let d = 0;
+  for (let i = 0; i < a.length; i++) d += (a[i] - b[i]) ** 2;
+  return d;
+}
+
+/** Solve a block of samples in order, each warm from the nearest of the last WINDOW solved. */
+export function solveBlock(block: AtlasBlock): SolvedSample[] {
+  const cache = new Map<string, RankPlan>();
+  const recent: { areas: number[]; pattern: string; states: Map<string, Equilibrium>[] }[] = [];
+  const out: SolvedSample[] = [];
+  block.areas.forEach((areas, s) => {
+    const pattern = areaClasses(areas).multiplicity.join(',');
+    let from: Map<string, Equilibrium>[] | null = null;
+    if (block.warmStart) {
+      let best = Infinity;
+      for (const r of recent) {
+        const d = distance2(r.areas, areas);
+        if (r.pattern === pattern && d < best) {
+          best = d;
+          from = r.states;
+        }
+      }
+    }
+    const result = rankSample(areas, cache, block.newton, from);
+    recent.push({ areas, pattern, states: result.states });
+    if (recent.length > WINDOW) recent.shift();
+    out.push({
+      index: block.indices[s], areas, ranked: result.ranked, exhaustive: result.exhaustive,
+      candidates: result.plan.work.reduce((p, q) => p + q, 0), warm: result.warm,
+    });
+  });
+  return out;
+}
