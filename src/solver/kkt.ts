@@ -115,8 +115,8 @@ export function factorStepInto(
   return n;
 }
 
-// Assemble the reduced matrix and right-hand side (see factorStepInto); returns the order.
-function assembleStepInto(
+/** Assemble the reduced matrix (lower triangle) and right-hand side, as factorStepInto does before factoring; returns the order. */
+export function assembleStepInto(
   problem: ClusterProblem, z: Float64Array, cache: Float64Array, mu: Float64Array, tau: number,
   shift: Float64Array, lengthGrad: Float64Array, change: Float64Array, rigid: Float64Array, kw: KktWorkspace,
 ): number {

@@ -20,11 +20,10 @@ import { drawByInsertionInto } from '../arcs/insertion.ts';
 import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
 import { descend } from './descent.ts';
-import { factorStepInto, rigidInto } from './kkt.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
-import { penaltyGradientInto, perimeterInto } from './penalty.ts';
 import { type ClusterProblem, cellAreasInto, problemOf } from './residual.ts';
 import type { Equilibrium } from './result.ts';
+import { stabilityOf } from './stability.ts';
 import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
 
@@ -312,16 +311,14 @@ function answerOf(
   if (answer.status === 'ok') {
     const c = answer.certificate;
     if (certificatePasses(c, opt.certificateTolerance)) {
-      // stability: the step's matrix at the answer with no shift; n + 3 of its negative eigenvalues
-      // belong to the constraints (areas, rigid motions), the rest are the index
-      const inertia = stabilityInto(problem, ws, opt.zeroTolerance);
-      const index = inertia.negative - (cells + 3);
+      // stability: the inertia of the KKT matrix at the answer, counted at the cluster's own scales
+      const { index, zeroModes } = stabilityOf(problem, ws, opt.zeroTolerance);
       // Fewer negative eigenvalues than constraints? The answer's second variation is not what it
       // claims to be: refuse it rather than report a made-up index.
       if (index < 0) answer.status = 'no-convergence';
       else {
         answer.index = index;
-        answer.zeroModes = inertia.zero;
+        answer.zeroModes = zeroModes;
       }
     } else if (c.crossings > 0 || c.misorderedJunctions > 0 || !(c.minCellArea > 0)) {
       answer.status = 'walls-cross';
@@ -335,20 +332,4 @@ function answerOf(
     for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) arr[i] = 0;
   }
   return answer;
-}
-
-// The inertia of the unshifted step matrix at ws.z (its pressures as the Lagrange multipliers).
-function stabilityInto(problem: ClusterProblem, ws: Workspace, zeroTolerance: number): { negative: number; zero: number } {
-  const { cells, junctions, walls } = problem;
-  const p0 = 2 * junctions + walls;
-  const { z, cache, areas, targets, mult, mu, grad, lengthGrad, rigid, shift, change, kkt } = ws;
-  perimeterInto(problem, z, cache, areas);
-  for (let f = 0; f < cells; f++) {
-    mult[f] = z[p0 + f];
-    change[f] = 0;
-  }
-  penaltyGradientInto(problem, z, targets, mult, 0, cache, areas, mu, grad, lengthGrad);
-  rigidInto(z, junctions, rigid);
-  factorStepInto(problem, z, cache, mult, 0, shift, lengthGrad, change, rigid, kkt, zeroTolerance);
-  return kkt.inertia;
 }

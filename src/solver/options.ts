@@ -29,8 +29,9 @@ export interface NewtonOptions {
    */
   collapseLength?: number;
   /**
-   * Relative size (to the largest entry) below which a pivot eigenvalue of the KKT matrix at the answer
-   * counts as a zero mode.
+   * Relative size, to the largest in magnitude, below which an eigenvalue of the equilibrated KKT matrix
+   * at the answer counts as a zero mode (stability.ts: every row scaled to largest entry 1 first, so
+   * the count does not depend on the scale of the cells).
    * @default 1e-8
    */
   zeroTolerance?: number;

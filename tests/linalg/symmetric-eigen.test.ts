@@ -1,0 +1,52 @@
+import { describe, expect, it } from 'vitest';
+import { tridiagonalEigenvaluesInto, tridiagonaliseInto } from '../../src/linalg/symmetric-eigen.ts';
+
+function eigenvalues(a: Float64Array, n: number): number[] {
+  const d = new Float64Array(n);
+  const e = new Float64Array(n);
+  tridiagonaliseInto(a, n, d, e, new Float64Array(2 * n));
+  expect(tridiagonalEigenvaluesInto(d, e, n)).toBe(true);
+  return Array.from(d).sort((x, y) => x - y);
+}
+
+describe('symmetric eigenvalues', () => {
+  it('the second-difference matrix of order n has eigenvalues 2 - 2 cos(k pi / (n + 1))', () => {
+    // the spectrum of the tridiagonal Toeplitz matrix (2, -1) (common practice, no source)
+    for (const n of [1, 2, 5, 17, 40]) {
+      const a = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) {
+        a[i * n + i] = 2;
+        if (i + 1 < n) {
+          a[i * n + i + 1] = -1;
+          a[(i + 1) * n + i] = -1;
+        }
+      }
+      const got = eigenvalues(a, n);
+      const want = Array.from({ length: n }, (_, k) => 2 - 2 * Math.cos(((k + 1) * Math.PI) / (n + 1))).sort((x, y) => x - y);
+      for (let k = 0; k < n; k++) expect(Math.abs(got[k] - want[k])).toBeLessThan(1e-13);
+    }
+  });
+
+  it('Q diag(lambda) Q^T, Q a product of reflections, gives back lambda (zeros and negatives included)', () => {
+    // orthogonal similarity keeps the spectrum (common practice, no source)
+    let seed = 7;
+    const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647) - 0.5;
+    for (const n of [3, 8, 25]) {
+      const lambda = Array.from({ length: n }, (_, i) => (i % 5 === 0 ? 0 : i % 3 === 0 ? -(i + 1) : 1e-3 * (i + 1)));
+      const a = new Float64Array(n * n);
+      for (let i = 0; i < n; i++) a[i * n + i] = lambda[i];
+      for (let r = 0; r < 3; r++) {
+        // A <- (I - 2 v v^T) A (I - 2 v v^T) with |v| = 1
+        const v = Array.from({ length: n }, random);
+        const norm = Math.hypot(...v);
+        for (let i = 0; i < n; i++) v[i] /= norm;
+        const av = Array.from({ length: n }, (_, i) => v.reduce((s, vj, j) => s + a[i * n + j] * vj, 0));
+        const vav = v.reduce((s, vi, i) => s + vi * av[i], 0);
+        for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] += -2 * v[i] * av[j] - 2 * av[i] * v[j] + 4 * vav * v[i] * v[j];
+      }
+      const got = eigenvalues(a, n);
+      const want = [...lambda].sort((x, y) => x - y);
+      for (let k = 0; k < n; k++) expect(Math.abs(got[k] - want[k])).toBeLessThan(1e-12 * n);
+    }
+  });
+});
