@@ -3,7 +3,8 @@
 // Nothing here calls the residual code: every wall is rebuilt as a circle (centre, radius) or a
 // segment, tangents are taken perpendicular to the radius, segment areas as sector minus triangle,
 // and the cells are walked through map.faceDarts. The certificate's entries are dimensionless:
-// areas relative to each cell's target, curvatures relative to |pressure difference| + 1/sqrt(mean area).
+// areas relative to each cell's target, curvatures relative to |pressure difference| + 1/sqrt(A), A the
+// smaller target area of the wall's two sides.
 
 import type { CubicMap } from '../maps/cubic-map.ts';
 
@@ -14,8 +15,8 @@ export interface Certificate {
   /** Largest |sum of the three unit tangents| over the junctions (Plateau's 120-degree law). */
   tangentResidual: number;
   /**
-   * Largest |curvature - pressure difference| / (|pressure difference| + 1/sqrt(mean target area)) over
-   * the walls (Laplace-Young law, relative to the wall's own curvature scale).
+   * Largest |curvature - pressure difference| / (|pressure difference| + 1/sqrt(A)) over the walls, A the
+   * smaller target area of the wall's two sides (Laplace-Young law, relative to the wall's own scale).
    */
   curvatureResidual: number;
   /** Shortest wall (arc length). */
@@ -141,7 +142,10 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
     const fl = map.faceOf[e];
     const fr = map.faceOf[twins[e]];
     const jump = (fr > 0 ? pressures[fr - 1] : 0) - (fl > 0 ? pressures[fl - 1] : 0);
-    curvatureResidual = Math.max(curvatureResidual, Math.abs(curvature - jump) / (Math.abs(jump) + 1 / unit));
+    // relative to the wall's own scale: the smaller target area of its two sides (a wall between two
+    // cells a billionth of the rest is judged at their size, not at the cluster's)
+    const local = Math.min(fl > 0 ? areas[fl - 1] : Infinity, fr > 0 ? areas[fr - 1] : Infinity);
+    curvatureResidual = Math.max(curvatureResidual, Math.abs(curvature - jump) / (Math.abs(jump) + 1 / Math.sqrt(local)));
   }
 
   // unit tangents at each junction, away from it, and their order

@@ -25,6 +25,7 @@ import type { ResolvedNewtonOptions } from './options.ts';
 import * as penalty from './penalty.ts';
 import { fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './residual.ts';
+import { tangentResidualOf } from './verdict.ts';
 import type { Workspace } from './workspace.ts';
 
 /** Why a descent stopped ('settled': at an equilibrium to within the tolerances, or at the rounding floor). */
@@ -52,6 +53,15 @@ const KAPPA_MAX = 1e8;
 // its gradient in FLOOR_STEPS steps, is at the rounding floor: settled (the certificate judges it).
 const CLOSE = 1e-9;
 const FLOOR_STEPS = 3;
+// The rounding floor of the gradient can lie far above CLOSE: a wall near a full circle (the outer wall
+// of a large cell beside a tiny one) has its bulge t near pi, where a rounding of t (one ulp of pi)
+// moves the length's gradient by g'(t) ulp, with g'(t) ~ pi / (pi - |t|)^2, while the geometry it
+// describes is as good as ever. When FLOOR_ULPS eps max|g'| is above CLOSE (walls within about 0.01 of
+// a full circle), a descent with the areas within CLOSE is judged by the geometry instead, whatever its
+// gradient: it has settled when the unit tangents at every junction sum to at most
+// TANGENT_SETTLED (Plateau's law, a well-conditioned test; the certificate judges the rest).
+const FLOOR_ULPS = 1e2;
+const TANGENT_SETTLED = 1e-11;
 // A wall below the collapse length counts as collapsing only once the areas are this close to their
 // targets (a start may draw small cells with short walls that grow first).
 const SETTLED = 0.02;
@@ -149,8 +159,13 @@ export function descend(
         break;
       }
     }
+    // Is a wall near a full circle, the gradient at its floor, and the geometry at an equilibrium?
+    if (violation <= CLOSE && nearFullCircle(cache, walls) && tangentResidualOf(problem, z) <= TANGENT_SETTLED) {
+      end = 'settled';
+      break;
+    }
     // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
-    const shortChord = shortest(problem, chords, targets);
+    const shortChord = shortest(problem, cache, targets);
     const shortWall = SHORTEST_WALL;
     if (violation <= SETTLED && shortChord < opt.collapseLength) {
       end = 'collapse';
@@ -322,8 +337,18 @@ export function descend(
   }
   if (z !== ws.z) ws.z.set(z.subarray(0, dim));
   for (let f = 0; f < cells; f++) ws.z[dim + f] = mu[f];
-  const chord = shortest(problem, chords, targets);
+  const chord = shortest(problem, cache, targets);
   return { end, iterations, wall: SHORTEST_WALL, chord };
+}
+
+// Whether the gradient's rounding floor at the state of the cache lies above CLOSE (see FLOOR_ULPS).
+function nearFullCircle(cache: Float64Array, walls: number): boolean {
+  let most = 0;
+  for (let k = 0; k < walls; k++) {
+    const v = Math.abs(cache[k * WALL_STRIDE + 4]);
+    if (v > most) most = v;
+  }
+  return FLOOR_ULPS * Number.EPSILON * most > CLOSE;
 }
 
 // The next shift after a refusal.
@@ -384,10 +409,11 @@ function violationOf(areas: Float64Array, targets: Float64Array, cells: number):
   return worst;
 }
 
-// The smallest chord relative to sqrt of the smaller target area on its two sides; its wall is left in
-// SHORTEST_WALL.
+// The shortest wall, by arc length (from the perimeter pass's cache: chord times g(t)) relative to sqrt
+// of the smaller target area on its two sides; its wall is left in SHORTEST_WALL. (By length, not chord:
+// the outer wall of a large cell beside a tiny one has a tiny chord and a bulge near pi, and is long.)
 let SHORTEST_WALL = 0;
-function shortest(problem: ClusterProblem, chords: Float64Array, targets: Float64Array): number {
+function shortest(problem: ClusterProblem, cache: Float64Array, targets: Float64Array): number {
   const { walls, lefts, rights } = problem;
   let wall = 0;
   let chord = Infinity;
@@ -395,7 +421,7 @@ function shortest(problem: ClusterProblem, chords: Float64Array, targets: Float6
     const l = lefts[k];
     const r = rights[k];
     const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
-    const c = chords[k] / Math.sqrt(area);
+    const c = (cache[k * WALL_STRIDE + 2] * cache[k * WALL_STRIDE + 3]) / Math.sqrt(area);
     if (c < chord) {
       chord = c;
       wall = k;

@@ -5,13 +5,15 @@
 //   2. start from the barycentric drawing (arcs/embed.ts), or from the construction-path drawing
 //      (arcs/insertion.ts) when the barycentric one draws a cell below SMALL_START of its area (nested
 //      cells: the barycentric drawing of a lens inside a ring comes out a millionth of its size), or
-//      from a previous answer (relaxFrom);
+//      from a previous answer (relaxFrom); cells drawn far larger than their targets are shrunk in
+//      place first (small-cells.ts);
 //   3. descend (descent.ts): constrained Newton steps on the augmented penalty energy, each keeping
 //      the shape's Hessian positive definite on the area constraints, until the equations hold to
 //      rounding or a wall shrinks to zero length (a T1 collapse);
-//   4. when that does not end, begin again from the other drawing;
-//   5. classify and certify with the independent checkEquilibrium; the inertia of the step's matrix at
-//      the answer gives the stability index and the zero modes.
+//   4. when that does not end, begin again from the other drawing; targets far apart (more than
+//      EXTREME) that still end without an equilibrium are approached from targets closer together;
+//   5. read the pressures off the curvatures (pressures.ts), certify with the independent
+//      checkEquilibrium, and count the index and zero modes (stability.ts).
 
 import { UsageError } from '../errors.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
@@ -22,7 +24,9 @@ import { type Certificate, certificatePasses, checkEquilibrium } from './certifi
 import { descend } from './descent.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
 import { type ClusterProblem, cellAreasInto, problemOf } from './residual.ts';
+import { curvaturePressuresInto } from './pressures.ts';
 import type { Equilibrium } from './result.ts';
+import { shrinkSmallCellsInto } from './small-cells.ts';
 import { stabilityOf } from './stability.ts';
 import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
@@ -46,6 +50,11 @@ const SMALL_START = 1e-4;
 // pay).
 const FAR_START = 6;
 const SPREAD = 6;
+// Targets more than EXTREME apart that a descent did not bring to an equilibrium are approached from
+// targets MODERATE apart, STAGE times further apart at each stage (approachInRatio).
+const EXTREME = 1e4;
+const MODERATE = 1e3;
+const STAGE = 10;
 
 interface Attempt {
   verdict: Verdict;
@@ -98,6 +107,19 @@ function drawStart(
   if (which === 'insertion') return null;
   embedClusterInto(map, problem.cells, coords, bulges);
   return 'barycentric';
+}
+
+// Shrink the cells of the drawing in ws.z that are drawn far larger than their targets to their size
+// (small-cells.ts), unless that leaves an invalid drawing (walls out of order, a cell of no area).
+function shrinkSmallCells(problem: ClusterProblem, ws: Workspace): void {
+  cellAreasInto(problem, ws.z, ws.areas);
+  const before = ws.trial;
+  before.set(ws.z);
+  if (!shrinkSmallCellsInto(problem, ws.z, ws.targets, ws.areas)) return;
+  cellAreasInto(problem, ws.z, ws.areas);
+  let valid = ordersHold(problem, ws.z);
+  for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] > 0)) valid = false;
+  if (!valid) ws.z.set(before);
 }
 
 // The answer for the circle (one cell): perimeter 2 sqrt(pi A), pressure 1/R (isoperimetric inequality).
@@ -162,6 +184,7 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   const first = drawStart(map, problem, ws, 'auto');
+  shrinkSmallCells(problem, ws);
   // how far the start's areas are from the targets, and the targets from each other (largest factors)
   cellAreasInto(problem, ws.z, ws.areas);
   let far = 1;
@@ -195,7 +218,54 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
       restarts = 1;
     }
   }
+  if (attempt.verdict.status !== 'ok' && most > EXTREME * least) {
+    // Are the areas far apart, and did the descent not reach an equilibrium? Approach them from areas
+    // MODERATE apart, STAGE times further apart each time, each stage warm from the last.
+    const approached = approachInRatio(map, problem, ws, opt, attempt);
+    if (approached !== null) {
+      attempt = approached;
+      restarts++;
+    }
+  }
   return answerOf(map, problem, ws, areas, unit, opt, attempt, restarts);
+}
+
+// Relax at targets whose logarithms are a fraction of the way from the largest target to the real ones
+// (MODERATE apart at first, STAGE times further apart at each next stage), each stage from the last
+// one's equilibrium, ending at the real targets. Returns the final attempt when every stage ended at an
+// equilibrium, else null with ws.z and ws.targets as they were.
+function approachInRatio(
+  map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, first: Attempt,
+): Attempt | null {
+  const { cells } = problem;
+  const goal = Float64Array.from(ws.targets.subarray(0, cells));
+  let most = 0;
+  let least = Infinity;
+  for (let f = 0; f < cells; f++) {
+    most = Math.max(most, goal[f]);
+    least = Math.min(least, goal[f]);
+  }
+  const span = Math.log(most / least);
+  const stages = Math.ceil((span - Math.log(MODERATE)) / Math.log(STAGE));
+  ws.saved.set(ws.z);
+  let iterations = first.iterations;
+  for (let s = 0; s <= stages; s++) {
+    const share = s === stages ? 1 : (Math.log(MODERATE) + s * Math.log(STAGE)) / span;
+    for (let f = 0; f < cells; f++) ws.targets[f] = s === stages ? goal[f] : most * Math.exp(share * Math.log(goal[f] / most));
+    if (s === 0) {
+      drawStart(map, problem, ws, 'auto');
+      shrinkSmallCells(problem, ws);
+    }
+    const stage = settle(problem, ws, opt, s > 0);
+    iterations += stage.iterations;
+    if (stage.verdict.status !== 'ok') {
+      ws.targets.set(goal);
+      ws.z.set(ws.saved);
+      first.iterations = iterations;
+      return null;
+    }
+  }
+  return { verdict: OK, iterations };
 }
 
 // Relax again from another first drawing; the first attempt's state is kept (and its verdict returned,
@@ -209,6 +279,7 @@ function secondStart(
     ws.z.set(ws.saved);
     return null;
   }
+  shrinkSmallCells(problem, ws);
   const again = settle(problem, ws, opt, false);
   const iterations = first.iterations + again.iterations;
   if (again.verdict.status === 'ok' || (replace && again.verdict.status !== 'no-convergence')) {
@@ -279,6 +350,8 @@ function answerOf(
   const achieved = block.subarray(p0 + cells + walls);
   for (let i = 0; i < t0; i++) coords[i] = z[i] * unit;
   for (let k = 0; k < walls; k++) bulges[k] = z[t0 + k];
+  // a settled answer's pressures are read off its curvatures (pressures.ts), not the descent's estimates
+  if (attempt.verdict.status === 'ok') curvaturePressuresInto(problem, z, ws.targets, z.subarray(p0, p0 + cells), ws.normal, ws.pivots, ws.row, ws.lambda);
   for (let f = 0; f < cells; f++) pressures[f] = z[p0 + f] / unit;
   let perimeter = 0;
   for (let k = 0; k < walls; k++) {

@@ -1,5 +1,6 @@
 // solver stage: the geometric tests that name how a relaxation ended (collapses, order at junctions).
 
+import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import type { ClusterProblem } from './residual.ts';
 import type { EquilibriumStatus } from './result.ts';
 
@@ -44,21 +45,60 @@ export function ordersHold(problem: ClusterProblem, z: Float64Array): boolean {
   return true;
 }
 
+const FACTORS = new Float64Array(BULGE_FACTORS);
+
+// The arc length of wall k at state z.
+function wallLength(problem: ClusterProblem, z: Float64Array, k: number): number {
+  const a = 2 * problem.starts[k];
+  const b = 2 * problem.ends[k];
+  bulgeFactorsInto(z[2 * problem.junctions + k], FACTORS);
+  return Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) * FACTORS[G];
+}
+
 /**
- * The wall of smallest chord relative to its size scale, sqrt of the smaller target area of the cells
- * on its two sides, and that relative chord.
+ * The largest length of the sum of the three unit tangents (away from the junction along each wall) over
+ * the junctions of state z: Plateau's 120-degree law, computed from each wall's chord direction turned by
+ * its bulge (well conditioned at every bulge, a wall near a full circle included).
+ */
+export function tangentResidualOf(problem: ClusterProblem, z: Float64Array): number {
+  const { junctions, twins, wallOf } = problem;
+  const t0 = 2 * junctions;
+  let worst = 0;
+  for (let v = 0; v < junctions; v++) {
+    let sx = 0;
+    let sy = 0;
+    for (let i = 0; i < 3; i++) {
+      const e = 3 * v + i;
+      const w = (twins[e] / 3) | 0;
+      const t = e < twins[e] ? z[t0 + wallOf[e]] : -z[t0 + wallOf[e]];
+      const dx = z[2 * w] - z[2 * v];
+      const dy = z[2 * w + 1] - z[2 * v + 1];
+      const c = Math.hypot(dx, dy);
+      const cos = Math.cos(t);
+      const sin = Math.sin(t);
+      sx += (dx * cos - dy * sin) / c;
+      sy += (dx * sin + dy * cos) / c;
+    }
+    const r = Math.hypot(sx, sy);
+    if (!(r <= worst)) worst = Number.isNaN(r) ? Infinity : r;
+  }
+  return worst;
+}
+
+/**
+ * The wall of smallest arc length relative to its size scale, sqrt of the smaller target area of the
+ * cells on its two sides, and that relative length (named `chord` as the collapse length is). By
+ * length, not chord: the outer wall of a large cell beside a tiny one has a tiny chord and is long.
  */
 export function shortestWall(problem: ClusterProblem, z: Float64Array, targets: Float64Array): { wall: number; chord: number } {
   const { walls, starts, ends, lefts, rights } = problem;
   let wall = 0;
   let chord = Infinity;
   for (let k = 0; k < walls; k++) {
-    const a = 2 * starts[k];
-    const b = 2 * ends[k];
     const l = lefts[k];
     const r = rights[k];
     const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
-    const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]) / Math.sqrt(area);
+    const c = wallLength(problem, z, k) / Math.sqrt(area);
     if (c < chord) {
       chord = c;
       wall = k;
@@ -67,7 +107,7 @@ export function shortestWall(problem: ClusterProblem, z: Float64Array, targets: 
   return { wall, chord };
 }
 
-// A cell all of whose walls are shorter than `limit` times sqrt(its target area), as a cell number, or 0.
+// A cell all of whose walls have chords shorter than `limit` times sqrt(its target area), as a cell number, or 0.
 function pinchedCell(problem: ClusterProblem, z: Float64Array, targets: Float64Array, limit: number): number {
   const { walls, starts, ends, lefts, rights, cells } = problem;
   for (let f = 0; f < cells; f++) {
