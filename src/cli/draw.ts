@@ -99,6 +99,7 @@ function arrangementSvg(what: string, opts: { areas?: number[]; ranks?: number[]
   const cluster = resolveArrangement(what);
   const areas = areasForCluster(cluster, opts.areas, what);
   const eq = relax(cluster.map, areas);
-  if (eq.status !== 'ok') cliStreams().err.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
+  if (eq.status === 'no-convergence') cliStreams().err.write(`lather: ${what}: the solver did not converge (existence unknown); drawn where the solve stopped\n`);
+  else if (eq.status !== 'ok') cliStreams().err.write(`lather: ${what} has no equilibrium at these areas (${eq.status}); drawn where the solve stopped\n`);
   return renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), style);
 }

@@ -51,7 +51,9 @@ export function relaxSummary(label: string, cluster: Cluster, areas: Float64Arra
       const id = to !== null && cluster.cells <= 8 ? arrangementIds(cluster.cells).get(to) : undefined;
       why += `: wall ${eq.collapsingWall} shrinks to zero; its T1 swap gives ${to === null ? 'no admissible arrangement' : id ? `${id} (${to})` : to}`;
     } else if (eq.status === 'cell-collapse') why += `: cell ${eq.collapsingCell} shrinks away from the others`;
-    lines.push(`status ${why} (no equilibrium of this arrangement at these areas; ${eq.iterations} Newton iterations)`);
+    // no convergence is no statement about existence
+    if (eq.status === 'no-convergence') lines.push(`status ${why}: the solver did not converge (existence unknown); ${eq.iterations} Newton iterations`);
+    else lines.push(`status ${why} (no equilibrium of this arrangement at these areas; ${eq.iterations} Newton iterations)`);
   }
   lines.push('');
   lines.push('cell  target area  achieved area  pressure  sides');

@@ -15,8 +15,10 @@ import type { Certificate } from './certificate.ts';
  * - 'fold': an equilibrium branch followed by area continuation turned back before the targets. The
  *   present relaxer does not continue in the areas and does not give this verdict; it stays a status
  *   of catalogues written by earlier versions.
- * - 'no-convergence': the descent from both first drawings ended without a verdict (or the certified
- *   answer's inertia counted fewer negative eigenvalues than constraints, which is refused).
+ * - 'no-convergence': the solver did not converge (existence unknown): the descent from both first
+ *   drawings ended without a verdict (or the certified answer's inertia counted fewer negative
+ *   eigenvalues than constraints, which is refused). It says nothing about whether an equilibrium
+ *   exists, and the sweep never takes it for an existence boundary.
  */
 export type EquilibriumStatus = 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'fold' | 'no-convergence';
 

@@ -29,7 +29,8 @@ const EXTENSIONS = 3;
 /**
  * Locate where candidate c stops existing between `ok` (certified) and `failAt` (not certified at
  * the samples' threshold), to ctx.tolerance. `limit` is the end of the parameter range beyond failAt.
- * Returns null when the equilibrium turns out to exist up to `limit` under the probe threshold.
+ * Returns null when the equilibrium turns out to exist up to `limit` under the probe threshold, or when
+ * the probes beyond the last certified one end without convergence (existence unknown, not a boundary).
  */
 export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, failAt: number, limit: number): Boundary | null {
   const list: KnownState[] = [ok];
@@ -68,6 +69,9 @@ export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, fail
       status = 'wall-collapse';
     }
   }
+  // Did the solver merely not converge? That says nothing about existence (the relaxer's status says
+  // "existence unknown"): no boundary.
+  if (status === 'no-convergence') return null;
   // zero modes counted at the sample (near the collapse a softening mode can pass for one), and at
   // least one per lens: a 2-sided cell slides along its wall of constant curvature (design.md §5)
   const lenses = ctx.set.candidates[c].sides.filter((k) => k === 2).length;

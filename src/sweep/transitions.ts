@@ -59,16 +59,18 @@ export function locateTransitions(
     if (list.length === 0) return null;
     const r = probe(ctx, c, p, list);
     if (r.known !== null) return r.known;
-    // a failure with no collapse between two certified states is the relaxer's, not the branch's
+    // a failure with no collapse between two certified states is the relaxer's, not the branch's; and
+    // no convergence never says the branch has ended (existence unknown)
     const status = r.equilibrium.status;
     const both = list.some((k) => k.p < p) && list.some((k) => k.p > p);
-    return both && (status === 'no-convergence' || status === 'walls-cross') ? 'glitch' : null;
+    return status === 'no-convergence' || (both && status === 'walls-cross') ? 'glitch' : null;
   };
   const evaluate = (p0: number, lo: number, hi: number): Evaluation => {
     const offsets = [0, ...RETRY_OFFSETS];
     let a: KnownState | null = null;
     let b: KnownState | null = null;
     let p = p0;
+    let settled = false;
     for (const f of offsets) {
       p = p0 + f * (hi - lo);
       if (f !== 0 && !(p > lo && p < hi)) continue;
@@ -77,8 +79,11 @@ export function locateTransitions(
       if (ra === 'glitch' || rb === 'glitch') continue;
       a = ra;
       b = rb;
+      settled = true;
       break;
     }
+    // Did every probe end without convergence? d is unknown there (NaN): the bracket is not narrowed.
+    if (!settled) return { p, d: NaN, a: null, b: null };
     if (a !== null && b !== null) return { p, d: a.state.equilibrium.perimeter - b.state.equilibrium.perimeter, a, b };
     // only one exists: it wins; neither: the one below has ended (treated as the one above winning)
     return { p, d: a !== null && b === null ? -Infinity : Infinity, a, b };
@@ -114,6 +119,7 @@ export function locateTransitions(
       if (!(p > lo && p < hi)) p = 0.5 * (lo + hi);
     }
     const e = evaluate(p, lo, hi);
+    if (Number.isNaN(e.d)) break;
     if (e.d <= 0) {
       lo = e.p;
       eLo = e;
