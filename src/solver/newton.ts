@@ -27,6 +27,7 @@ import { type ClusterProblem, cellAreasInto, problemOf } from './residual.ts';
 import { curvaturePressuresInto } from './pressures.ts';
 import type { Equilibrium } from './result.ts';
 import { shrinkSmallCellsInto } from './small-cells.ts';
+import { centreLensInto, lensHostOf } from './family.ts';
 import { stabilityOf } from './stability.ts';
 import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
@@ -63,19 +64,68 @@ interface Attempt {
 
 const NO_CONVERGENCE: Verdict = { status: 'no-convergence', wall: null, cell: null };
 
-// Descend from ws.z and name the end.
-function settle(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, warm: boolean): Attempt {
+// Descend from ws.z and name the end. A wall collapse that is a lens sliding to the end of its family
+// (family.ts) is not taken for one: the lens is moved to the middle of its range and the descent goes on
+// from there, up to FAMILY_TRIES times; if it still collapses, the first collapse is the verdict.
+function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, warm: boolean): Attempt {
   const d = descend(problem, ws, opt, opt.maxIterations, warm);
-  let verdict = NO_CONVERGENCE;
-  if (d.end === 'collapse') verdict = collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
-  else if (d.end === 'settled') {
-    // Is the equilibrium reached with a wall below the collapse length, or out of order at a junction?
-    if (shortestWall(problem, ws.z, ws.targets).chord < opt.collapseLength) {
-      verdict = collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
-    } else if (!ordersHold(problem, ws.z)) verdict = { status: 'walls-cross', wall: null, cell: null };
-    else verdict = OK;
+  let iterations = d.iterations;
+  const verdict = verdictOf(problem, ws, opt, d.end);
+  if (verdict.status !== 'wall-collapse' || lensHostOf(problem, verdict.wall as number) === null) return { verdict, iterations };
+  const { first, trial } = familyBuffers(problem.size);
+  first.set(ws.z);
+  let wall = verdict.wall as number;
+  for (let attempt = 0; attempt < FAMILY_TRIES; attempt++) {
+    const host = lensHostOf(problem, wall);
+    if (host === null || !centreLensInto(problem, ws.z, host, trial)) break;
+    // (the watch for a collapse looks at walls below 50 collapse lengths, and the pieces of a lens that
+    // fills most of its wall may be that short all along its family: from the middle member it watches
+    // at a hundredth of that, and the verdict still asks for every wall above the collapse length)
+    const again = descend(problem, ws, { ...opt, collapseLength: FAMILY_WATCH * opt.collapseLength }, opt.maxIterations, true);
+    iterations += again.iterations;
+    const next = verdictOf(problem, ws, opt, again.end);
+    // (and no two walls cross: a lens moved along a curved wall may have been carried into another)
+    if (next.status === 'ok' && crossingsAt(map, problem, ws) === 0) return { verdict: next, iterations };
+    if (next.status === 'ok') break;
+    if (next.status !== 'wall-collapse') break;
+    wall = next.wall as number;
   }
-  return { verdict, iterations: d.iterations };
+  ws.z.set(first);
+  return { verdict, iterations };
+}
+
+// Walls that cross at the state ws.z (normalised units, checked against the normalised targets).
+function crossingsAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): number {
+  const t0 = 2 * problem.junctions;
+  const p0 = t0 + problem.walls;
+  const z = ws.z;
+  return checkEquilibrium(map, ws.targets.subarray(0, problem.cells), {
+    coords: z.subarray(0, t0), bulges: z.subarray(t0, p0), pressures: z.subarray(p0, p0 + problem.cells),
+  }).crossings;
+}
+
+// The verdict of a descent that ended with `end` at ws.z.
+function verdictOf(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, end: string): Verdict {
+  if (end === 'collapse') return collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
+  if (end !== 'settled') return NO_CONVERGENCE;
+  // Is the equilibrium reached with a wall below the collapse length, or out of order at a junction?
+  if (shortestWall(problem, ws.z, ws.targets).chord < opt.collapseLength) return collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
+  if (!ordersHold(problem, ws.z)) return { status: 'walls-cross', wall: null, cell: null };
+  return OK;
+}
+
+// Times a lens is moved back to the middle of its family after its descent slid it to an end.
+const FAMILY_TRIES = 3;
+const FAMILY_WATCH = 1e-2;
+// Per state size: the state at the first collapse, and scratch for centreLensInto.
+const FAMILY_BUFFERS = new Map<number, { first: Float64Array; trial: Float64Array }>();
+function familyBuffers(size: number): { first: Float64Array; trial: Float64Array } {
+  let b = FAMILY_BUFFERS.get(size);
+  if (!b) {
+    b = { first: new Float64Array(size), trial: new Float64Array(size) };
+    FAMILY_BUFFERS.set(size, b);
+  }
+  return b;
 }
 
 // Write a first drawing into ws.z: with 'auto' the barycentric one, or the construction-path one where
@@ -197,7 +247,7 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
     least = Math.min(least, ws.targets[f]);
     most = Math.max(most, ws.targets[f]);
   }
-  let attempt = settle(problem, ws, opt, false);
+  let attempt = settle(map, problem, ws, opt, false);
   let restarts = 0;
   const status = attempt.verdict.status;
   if (status === 'no-convergence') {
@@ -256,7 +306,7 @@ function approachInRatio(
       drawStart(map, problem, ws, 'auto');
       shrinkSmallCells(problem, ws);
     }
-    const stage = settle(problem, ws, opt, s > 0);
+    const stage = settle(map, problem, ws, opt, s > 0);
     iterations += stage.iterations;
     if (stage.verdict.status !== 'ok') {
       ws.targets.set(goal);
@@ -280,7 +330,7 @@ function secondStart(
     return null;
   }
   shrinkSmallCells(problem, ws);
-  const again = settle(problem, ws, opt, false);
+  const again = settle(map, problem, ws, opt, false);
   const iterations = first.iterations + again.iterations;
   if (again.verdict.status === 'ok' || (replace && again.verdict.status !== 'no-convergence')) {
     return { verdict: again.verdict, iterations };
@@ -322,7 +372,7 @@ export function relaxFrom(
   for (let f = 0; f < cells; f++) if (!(ws.areas[f] > 0) || !Number.isFinite(ws.z[p0 + f])) valid = false;
   for (let i = 0; i < p0; i++) if (!Number.isFinite(ws.z[i]) || (i >= t0 && !(Math.abs(ws.z[i]) < Math.PI))) valid = false;
   if (!valid) return relax(map, areas, options);
-  const warm = answerOf(map, problem, ws, areas, unit, opt, settle(problem, ws, opt, true), 0);
+  const warm = answerOf(map, problem, ws, areas, unit, opt, settle(map, problem, ws, opt, true), 0);
   if (warm.status === 'ok') return warm;
   const cold = relax(map, areas, options);
   cold.iterations += warm.iterations;

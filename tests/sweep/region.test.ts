@@ -14,7 +14,7 @@ describe('sweepRegion', () => {
     expect(s.regions).toHaveLength(1);
     expect(s.regions[0].members).toHaveLength(16);
     expect(s.set.candidates[s.regions[0].winner!].code).toBe(standard);
-  });
+  }, 60_000);
 
   it('sweepRegion of a grid: every sample\'s winner and perimeter equal those of rankAreas there', async () => {
     // reference: rankAreas, relaxed from scratch at each sample's areas
