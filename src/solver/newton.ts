@@ -81,7 +81,7 @@ function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: Reso
     // (the watch for a collapse looks at walls below 50 collapse lengths, and the pieces of a lens that
     // fills most of its wall may be that short all along its family: from the middle member it watches
     // at a hundredth of that, and the verdict still asks for every wall above the collapse length)
-    const again = descend(problem, ws, { ...opt, collapseLength: FAMILY_WATCH * opt.collapseLength }, opt.maxIterations, true);
+    const again = descend(problem, ws, { ...opt, collapseLength: FAMILY_WATCH * opt.collapseLength }, FAMILY_BUDGET, true);
     iterations += again.iterations;
     const next = verdictOf(problem, ws, opt, again.end);
     // (and no two walls cross: a lens moved along a curved wall may have been carried into another)
@@ -117,6 +117,8 @@ function verdictOf(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOp
 // Times a lens is moved back to the middle of its family after its descent slid it to an end.
 const FAMILY_TRIES = 3;
 const FAMILY_WATCH = 1e-2;
+// Newton iterations of each descent from a family's middle member (it starts next to an equilibrium).
+const FAMILY_BUDGET = 60;
 // Per state size: the state at the first collapse, and scratch for centreLensInto.
 const FAMILY_BUFFERS = new Map<number, { first: Float64Array; trial: Float64Array }>();
 function familyBuffers(size: number): { first: Float64Array; trial: Float64Array } {
