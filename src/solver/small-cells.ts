@@ -27,14 +27,13 @@ export const SMALL_CELL_FACTOR = 1e3;
  */
 export function shrinkSmallCellsInto(problem: ClusterProblem, z: Float64Array, targets: Float64Array, areas: Float64Array): boolean {
   const { cells, junctions, walls, starts, ends, lefts, rights } = problem;
-  // which cells are too large, grouped by shared walls (union-find on cells)
-  const parent = new Int32Array(cells);
+  // Is any cell drawn too large? (Most drawings: no, and nothing is allocated.)
   let any = false;
-  for (let f = 0; f < cells; f++) {
-    parent[f] = f;
-    if (areas[f] > SMALL_CELL_FACTOR * targets[f]) any = true;
-  }
+  for (let f = 0; f < cells; f++) if (areas[f] > SMALL_CELL_FACTOR * targets[f]) any = true;
   if (!any) return false;
+  // the cells too large, grouped by shared walls (union-find on cells)
+  const parent = new Int32Array(cells);
+  for (let f = 0; f < cells; f++) parent[f] = f;
   const small = (f: number): boolean => f >= 0 && areas[f] > SMALL_CELL_FACTOR * targets[f];
   const root = (f: number): number => {
     while (parent[f] !== f) f = parent[f] = parent[parent[f]];

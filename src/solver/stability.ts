@@ -35,7 +35,6 @@ export interface Stability {
 const SCALING_PASSES = 10;
 
 interface Scratch {
-  order: number;
   a: Float64Array;
   scale: Float64Array;
   diagonal: Float64Array;
@@ -48,7 +47,6 @@ function scratchFor(order: number): Scratch {
   let s = SCRATCH.get(order);
   if (!s) {
     s = {
-      order,
       a: new Float64Array(order * order),
       scale: new Float64Array(order),
       diagonal: new Float64Array(order),
