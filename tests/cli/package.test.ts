@@ -1,7 +1,7 @@
 // The package as a user gets it: `npm pack`, installed into an empty folder, run from plain Node (no tsx,
 // no sources). The only spawned runs of the suite; everything else goes through tests/cli/helpers.ts.
 import { execFileSync, spawnSync } from 'node:child_process';
-import { mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readdirSync, readFileSync, renameSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -50,6 +50,10 @@ describe('the packed package, installed', () => {
     // tsx and @types/* are for development only (the issue's requirement)
     const manifest = JSON.parse(readFileSync(join(pkg, 'package.json'), 'utf8'));
     expect(Object.keys(manifest.dependencies).filter((d) => d === 'tsx' || d.startsWith('@types/'))).toEqual([]);
+  });
+
+  it('the built binary is executable, so npx runs it in a clone (npm sets the mode only when installing)', () => {
+    expect(statSync(join(root, 'dist', 'cli', 'lather.js')).mode & 0o111).toBe(0o111);
   });
 
   it('lather --version prints the version of package.json', () => {
