@@ -20,6 +20,7 @@
 // Node numbering: junction v -> v, wall k -> V + k, cell f (face f >= 1) -> V + E + f - 1.
 
 import type { CubicMap } from '../maps/cubic-map.ts';
+import { choleskyRootInto, choleskyRootSolveInto } from '../linalg/cholesky.ts';
 import { bulgeThrough } from './arc.ts';
 
 /** A drawing: junction coordinates (coords[2v], coords[2v + 1]) and one bulge per wall (see arc.ts). */
@@ -170,9 +171,9 @@ export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float
       by[sb] += y[a];
     }
   }
-  choleskyInPlace(matrix, free);
-  solveCholesky(matrix, free, bx);
-  solveCholesky(matrix, free, by);
+  choleskyRootInto(matrix, free);
+  choleskyRootSolveInto(matrix, free, bx);
+  choleskyRootSolveInto(matrix, free, by);
   for (let i = 0; i < nodes; i++) {
     const k = slot[i];
     if (k < 0) continue;
@@ -240,38 +241,4 @@ function inOrder(twins: Int32Array, wallOf: Int32Array, coords: Float64Array, bu
     else return d1 > 0 && d1 < d;
   }
   return false;
-}
-
-// Cholesky factorisation L L^T of the symmetric positive definite n x n matrix `a` (lower triangle
-// read), in place in its lower triangle ("Matrix Computations", 4th ed., 2013, §4.2).
-function choleskyInPlace(a: Float64Array, n: number): void {
-  for (let j = 0; j < n; j++) {
-    const rj = j * n;
-    let d = a[rj + j];
-    for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
-    const root = Math.sqrt(d);
-    a[rj + j] = root;
-    const inv = 1 / root;
-    for (let i = j + 1; i < n; i++) {
-      const ri = i * n;
-      let s = a[ri + j];
-      for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];
-      a[ri + j] = s * inv;
-    }
-  }
-}
-
-// Solve L L^T x = b in place in b with the factor of choleskyInPlace.
-function solveCholesky(a: Float64Array, n: number, b: Float64Array): void {
-  for (let i = 0; i < n; i++) {
-    const ri = i * n;
-    let s = b[i];
-    for (let k = 0; k < i; k++) s -= a[ri + k] * b[k];
-    b[i] = s / a[ri + i];
-  }
-  for (let i = n - 1; i >= 0; i--) {
-    let s = b[i];
-    for (let k = i + 1; k < n; k++) s -= a[k * n + i] * b[k];
-    b[i] = s / a[i * n + i];
-  }
 }

@@ -13,7 +13,7 @@
 // is diagonal: each bulge is eliminated by one rank-one update of the rows of its wall's four
 // coordinates and its two cells' pressures (design.md §5), leaving an order of 2V + n + 3 plus the
 // walls whose bulge pivot is too small to eliminate safely (a semicircle's is 0 at equilibrium). The
-// reduced matrix is factored by the symmetric indefinite LDL^T of ldlt.ts, whose inertia tells whether
+// reduced matrix is factored by the symmetric indefinite LDL^T of linalg/ldlt.ts, whose inertia tells whether
 // B is positive definite on the null space of the constraints (Haynsworth inertia additivity: the
 // eliminated pivots count with their signs; "Matrix Computations", 4th ed., 2013, §4.4 and the Schur
 // complement): it is exactly when n + 3 eigenvalues are negative and none is zero. With a shift the
@@ -22,7 +22,9 @@
 // Layout of the reduced unknowns: coordinates 0 .. 2V, kept bulges 2V .. 2V + K, pressures, then the
 // three rigid multipliers when there are rigid rows.
 
-import { type Inertia, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto } from './ldlt.ts';
+import {
+  type Inertia, type LdltScratch, ldltScratch, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto,
+} from '../linalg/ldlt.ts';
 import type { ClusterProblem } from './residual.ts';
 
 // Offsets of the per-wall cache of penalty.ts (WALL_STRIDE numbers per wall).
@@ -58,6 +60,8 @@ export interface KktWorkspace {
   rhs: Float64Array;
   /** Pivots of the factorisation. */
   pivots: Int32Array;
+  /** Scratch columns of the factorisation. */
+  scratch: LdltScratch;
   /** Slot of wall k's bulge in the reduced system, or -1 when eliminated. */
   slots: Int32Array;
   /** Per-wall elimination data, ELIMINATED_STRIDE numbers per wall. */
@@ -80,6 +84,7 @@ export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
     matrix: new Float64Array(most * most),
     rhs: new Float64Array(most),
     pivots: new Int32Array(most),
+    scratch: ldltScratch(most),
     slots: new Int32Array(walls),
     eliminated: new Float64Array(walls * ELIMINATED_STRIDE),
     inertia: { negative: 0, zero: 0, positive: 0 },
@@ -106,10 +111,10 @@ export function factorStepInto(
 ): number {
   // first without pivoting (stable when no pivot is small); else assembled again and pivoted
   let n = assembleStepInto(problem, z, cache, mu, tau, shift, lengthGrad, change, rigid, kw);
-  kw.plain = plainFactorInto(kw.matrix, n, kw.pivots, zeroTolerance, kw.inertia);
+  kw.plain = plainFactorInto(kw.matrix, n, kw.pivots, zeroTolerance, kw.inertia, kw.scratch);
   if (!kw.plain) {
     n = assembleStepInto(problem, z, cache, mu, tau, shift, lengthGrad, change, rigid, kw);
-    pivotedFactorInto(kw.matrix, n, kw.pivots, zeroTolerance, kw.inertia);
+    pivotedFactorInto(kw.matrix, n, kw.pivots, zeroTolerance, kw.inertia, kw.scratch);
   }
   kw.inertia.negative += kw.negativePivots;
   return n;

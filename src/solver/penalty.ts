@@ -16,7 +16,7 @@
 // WALL_STRIDE) that the gradient pass and the step's assembly (kkt.ts) reuse.
 
 import * as arc from '../arcs/arc.ts';
-import { choleskyInto, choleskySolveInto } from './cholesky.ts';
+import { choleskyInto, choleskySolveInto } from '../linalg/cholesky.ts';
 import type { ClusterProblem } from './residual.ts';
 
 /** Offsets of the per-wall cache filled by penaltyEnergyInto. */

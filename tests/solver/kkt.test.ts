@@ -2,8 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { embedCluster } from '../../src/arcs/embed.ts';
 import { factorStepInto, kktWorkspace, rigidInto, solveStepInto, stepCurvature } from '../../src/solver/kkt.ts';
-import { symmetricInertia } from '../../src/solver/ldlt.ts';
-import { luFactorInto, luSolveInto } from '../../src/solver/lu.ts';
+import { luFactorInto, luSolveInto, symmetricInertia } from '../linalg/reference.ts';
 import { WALL_STRIDE, penaltyGradientInto, perimeterInto } from '../../src/solver/penalty.ts';
 import { cellAreasInto, jacobianInto, problemOf, residualInto } from '../../src/solver/residual.ts';
 

@@ -6,7 +6,7 @@ import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { CubicMap, circleMap, thetaMap } from '../../src/maps/cubic-map.ts';
 import type { Equilibrium } from '../../src/solver/result.ts';
 import { jacobianInto, problemOf } from '../../src/solver/residual.ts';
-import { symmetricInertia } from '../../src/solver/ldlt.ts';
+import { symmetricInertia } from '../linalg/reference.ts';
 
 
 function sides(map: CubicMap): number[] {

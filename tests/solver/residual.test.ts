@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { embedCluster } from '../../src/arcs/embed.ts';
 import { jacobianInto, problemOf, residualInto } from '../../src/solver/residual.ts';
-import { luFactorInto, luSolveInto } from '../../src/solver/lu.ts';
+import { luFactorInto, luSolveInto } from '../linalg/reference.ts';
 import { relax } from '../../src/solver/newton.ts';
 
 function stateOf(map: Parameters<typeof problemOf>[0], coords: Float64Array, bulges: Float64Array, pressures: Float64Array) {

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
-  type Inertia, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricFactorInto, symmetricSolveInto,
-} from '../../src/solver/ldlt.ts';
+  type Inertia, ldltScratch, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto,
+} from '../../src/linalg/ldlt.ts';
+import { symmetricFactorInto } from './reference.ts';
 
 let seed = 4242;
 function random(): number {
@@ -68,10 +69,10 @@ describe('symmetric LDL^T', () => {
   it('pivotedFactorInto handles a zero diagonal (a saddle-point matrix) that plainFactorInto refuses', () => {
     // [[0, 1], [1, 0]] has eigenvalues -1 and 1: no 1x1 pivot exists, a 2x2 one does
     // ("Matrix Computations", 4th ed., 2013, §4.4)
-    expect(plainFactorInto(Float64Array.of(0, 1, 1, 0), 2, new Int32Array(2), 0, fresh())).toBe(false);
+    expect(plainFactorInto(Float64Array.of(0, 1, 1, 0), 2, new Int32Array(2), 0, fresh(), ldltScratch(2))).toBe(false);
     const f = Float64Array.of(0, 1, 1, 0);
     const piv = new Int32Array(2);
-    expect(pivotedFactorInto(f, 2, piv, 0, fresh())).toEqual({ negative: 1, zero: 0, positive: 1 });
+    expect(pivotedFactorInto(f, 2, piv, 0, fresh(), ldltScratch(2))).toEqual({ negative: 1, zero: 0, positive: 1 });
     const x = Float64Array.of(2, 3);
     symmetricSolveInto(f, 2, piv, x);
     expect(Array.from(x)).toEqual([3, 2]);
@@ -92,12 +93,12 @@ describe('symmetric LDL^T', () => {
       }
     }
     const plain = a.slice();
-    expect(plainFactorInto(plain, n, new Int32Array(n), 0, fresh())).toBe(true);
+    expect(plainFactorInto(plain, n, new Int32Array(n), 0, fresh(), ldltScratch(n))).toBe(true);
     const pivoted = a.slice();
-    const inertia = pivotedFactorInto(pivoted, n, new Int32Array(n), 0, fresh());
+    const inertia = pivotedFactorInto(pivoted, n, new Int32Array(n), 0, fresh(), ldltScratch(n));
     expect(inertia).toEqual({ negative: 2, zero: 0, positive: 5 });
     const check = fresh();
-    plainFactorInto(a.slice(), n, new Int32Array(n), 0, check);
+    plainFactorInto(a.slice(), n, new Int32Array(n), 0, check, ldltScratch(n));
     expect(check).toEqual(inertia);
     const b = Float64Array.from({ length: n }, () => random() - 0.5);
     const x = b.slice();
@@ -109,5 +110,23 @@ describe('symmetric LDL^T', () => {
     // reference: eigenvalues fixed by construction, two of them exactly zero
     const a = symmetricWithEigenvalues([2, -1, 0, 3, 0, -4]);
     expect(symmetricFactorInto(a, 6, new Int32Array(6), 1e-10, fresh())).toEqual({ negative: 2, zero: 2, positive: 2 });
+  });
+
+  it('plainFactorInto factors a positive definite matrix of order 80 without giving up', () => {
+    // regression: the plain factorisation read a module scratch column of 64 numbers that only the
+    // pivoted one grew, so in a fresh process (this file runs in its own) an order above 64 read
+    // undefined entries, failed its growth test and fell back to pivoting. A positive definite matrix
+    // never needs pivoting: every l_ij^2 d_j <= a_ii ("Matrix Computations", 4th ed., 2013, §4.2).
+    const n = 80;
+    const eig = Array.from({ length: n }, () => 0.5 + 2 * random());
+    const a = symmetricWithEigenvalues(eig);
+    const f = a.slice();
+    const inertia = fresh();
+    expect(plainFactorInto(f, n, new Int32Array(n), 1e-12, inertia, ldltScratch(n))).toBe(true);
+    expect(inertia).toEqual({ negative: 0, zero: 0, positive: n });
+    const b = Float64Array.from({ length: n }, () => random() - 0.5);
+    const x = b.slice();
+    plainSolveInto(f, n, x);
+    expect(residual(a, n, x, b)).toBeLessThan(1e-11);
   });
 });

@@ -1,4 +1,4 @@
-// solver stage: symmetric indefinite LDL^T factorisation of a dense matrix, its solve and its inertia.
+// linear algebra: symmetric indefinite LDL^T factorisation of a dense matrix, its solve and its inertia.
 //
 // Diagonal pivoting with 1x1 and 2x2 pivots chosen by the partial pivoting test with
 // alpha = (1 + sqrt 17) / 8, which bounds element growth ("Matrix Computations", 4th ed., 2013, §4.4;
@@ -20,36 +20,19 @@ export interface Inertia {
   positive: number;
 }
 
-// Scratch columns of the factorisation (grown to the largest order seen).
-let COLUMN = new Float64Array(64);
-let COLUMN2 = new Float64Array(64);
-
-/**
- * Factor the symmetric n x n row-major matrix `a` in place, reading and writing only its lower
- * triangle (the upper one is left as it was): afterwards the strict lower triangle holds L and the
- * diagonal, with the first subdiagonal entry of each 2x2 block, holds D. pivots[k] records the step:
- * for a 1x1 pivot the row swapped into k (k itself when none), for a 2x2 pivot on k, k + 1:
- * pivots[k] = -1 and pivots[k + 1] the row swapped into k + 1. A pivot eigenvalue whose magnitude is at
- * most `zeroTolerance` times the largest |entry| counts as zero. Writes the inertia into `out`.
- */
-export function symmetricFactorInto(
-  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia,
-): Inertia {
-  if (COLUMN.length < n) {
-    COLUMN = new Float64Array(2 * n);
-    COLUMN2 = new Float64Array(2 * n);
-  }
-  // first the factorisation in the given order, which is stable when no pivot is small; only when one
-  // is, diagonal pivoting from the original matrix (kept in SAVED)
-  if (SAVED.length < n * n) SAVED = new Float64Array(2 * n * n);
-  SAVED.set(a.subarray(0, n * n));
-  if (plainFactorInto(a, n, pivots, zeroTolerance, out)) return out;
-  a.set(SAVED.subarray(0, n * n));
-  return pivotedFactorInto(a, n, pivots, zeroTolerance, out);
+/** Scratch of the factorisations, owned by the caller: two columns of at least the matrix's order. */
+export interface LdltScratch {
+  /** A column of the trailing matrix (the plain factorisation's row of L D). */
+  column: Float64Array;
+  /** The second column of a 2x2 pivot. */
+  column2: Float64Array;
 }
 
-// Copy of the matrix for the pivoted factorisation after a plain one gave up.
-let SAVED = new Float64Array(0);
+/** Scratch for matrices of order up to `order`. */
+export function ldltScratch(order: number): LdltScratch {
+  return { column: new Float64Array(order), column2: new Float64Array(order) };
+}
+
 // The plain factorisation gives up for diagonal pivoting when a pivot is below PLAIN_PIVOT of the largest
 // |entry| or an entry l_ij^2 |d_j| of L D L^T's factors exceeds PLAIN_GROWTH times it (for a positive
 // definite matrix it never exceeds 1: l_ij^2 d_j <= a_ii).
@@ -59,24 +42,19 @@ const PLAIN_GROWTH = 1e4;
 // (row by row: dot products with the rows above)
 /**
  * L D L^T of the symmetric n x n row-major matrix `a` (lower triangle read) without pivoting, in place as
- * symmetricFactorInto leaves it, with its inertia in `out`. Returns false, leaving `a` partly
+ * pivotedFactorInto leaves it (no swaps), with its inertia in `out`. Returns false, leaving `a` partly
  * overwritten, when the order needs pivoting: a pivot below PLAIN_PIVOT of the largest |entry|, or an
  * entry l_ij^2 |d_j| above PLAIN_GROWTH times it.
  */
-export function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia): boolean {
-  let scale = 0;
-  for (let i = 0; i < n; i++) {
-    const ri = i * n;
-    for (let j = 0; j <= i; j++) {
-      const v = Math.abs(a[ri + j]);
-      if (!(v <= scale)) scale = v;
-    }
-  }
+export function plainFactorInto(
+  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia, scratch: LdltScratch,
+): boolean {
+  const scale = lowerScale(a, n);
   if (!Number.isFinite(scale)) return false;
   const least = PLAIN_PIVOT * scale;
   const growthLimit = PLAIN_GROWTH * scale;
   const zeroLevel = zeroTolerance * scale;
-  const w = COLUMN;
+  const w = scratch.column;
   let negative = 0;
   let zero = 0;
   let positive = 0;
@@ -111,24 +89,21 @@ export function plainFactorInto(a: Float64Array, n: number, pivots: Int32Array, 
   return true;
 }
 
-/** The factorisation with 1x1 and 2x2 diagonal pivots of the file header, as symmetricFactorInto. */
+/**
+ * Factor the symmetric n x n row-major matrix `a` with the 1x1 and 2x2 diagonal pivots of the file
+ * header, in place, reading and writing only its lower triangle (the upper one is left as it was):
+ * afterwards the strict lower triangle holds L and the diagonal, with the first subdiagonal entry of
+ * each 2x2 block, holds D. pivots[k] records the step: for a 1x1 pivot the row swapped into k (k itself
+ * when none), for a 2x2 pivot on k, k + 1: pivots[k] = -1 and pivots[k + 1] the row swapped into k + 1.
+ * A pivot eigenvalue whose magnitude is at most `zeroTolerance` times the largest |entry| counts as
+ * zero. Writes the inertia into `out`.
+ */
 export function pivotedFactorInto(
-  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia,
+  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia, scratch: LdltScratch,
 ): Inertia {
-  if (COLUMN.length < n) {
-    COLUMN = new Float64Array(2 * n);
-    COLUMN2 = new Float64Array(2 * n);
-  }
-  const col = COLUMN;
-  const col2 = COLUMN2;
-  let scale = 0;
-  for (let i = 0; i < n; i++) {
-    const ri = i * n;
-    for (let j = 0; j <= i; j++) {
-      const v = Math.abs(a[ri + j]);
-      if (!(v <= scale)) scale = v;
-    }
-  }
+  const col = scratch.column;
+  const col2 = scratch.column2;
+  const scale = lowerScale(a, n);
   const zeroLevel = zeroTolerance * scale;
   let negative = 0;
   let zero = 0;
@@ -244,7 +219,7 @@ export function pivotedFactorInto(
   return out;
 }
 
-/** Solve A x = b in place in b, with `a` and `pivots` from symmetricFactorInto (A nonsingular). */
+/** Solve A x = b in place in b, with `a` and `pivots` from pivotedFactorInto (A nonsingular). */
 export function symmetricSolveInto(a: Float64Array, n: number, pivots: Int32Array, b: Float64Array): void {
   // b <- P b
   for (let k = 0; k < n; k++) {
@@ -329,12 +304,17 @@ export function plainSolveInto(a: Float64Array, n: number, b: Float64Array): voi
   }
 }
 
-/**
- * Inertia of the symmetric n x n row-major matrix `a`, which is overwritten. A pivot eigenvalue whose
- * magnitude is at most `zeroTolerance` times the largest |entry| of `a` counts as zero.
- */
-export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: number): Inertia {
-  return symmetricFactorInto(a, n, new Int32Array(n), zeroTolerance, { negative: 0, zero: 0, positive: 0 });
+// The largest |entry| of the lower triangle of the n x n row-major matrix a (NaN when one is NaN).
+function lowerScale(a: Float64Array, n: number): number {
+  let scale = 0;
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    for (let j = 0; j <= i; j++) {
+      const v = Math.abs(a[ri + j]);
+      if (!(v <= scale)) scale = v;
+    }
+  }
+  return scale;
 }
 
 // Symmetric permutation of rows and columns i < j, in lower-triangle storage.

@@ -1,9 +1,9 @@
-// solver stage: Cholesky factorisation L D L^T of a dense symmetric matrix, in place, as a test of
+// linear algebra: Cholesky factorisation L D L^T of a dense symmetric matrix, in place, as a test of
 // positive definiteness.
 //
 // Symmetric Gaussian elimination without pivoting ("Matrix Computations", 4th ed., 2013, §4.2): it
 // succeeds exactly when every pivot is positive, that is when the matrix is positive definite. The
-// descent uses the failure to raise its diagonal shift.
+// pressure fit (solver/penalty.ts) solves with it.
 
 /**
  * Factor the symmetric n x n row-major matrix `a` (lower triangle read) in place as L D L^T: afterwards
@@ -55,5 +55,44 @@ export function choleskySolveInto(a: Float64Array, n: number, d: Float64Array, b
     const x = b[k];
     if (x === 0) continue;
     for (let i = 0; i < k; i++) b[i] -= a[rk + i] * x;
+  }
+}
+
+/**
+ * Cholesky factorisation L L^T of the symmetric n x n row-major matrix `a`, known to be positive
+ * definite (lower triangle read), in place in its lower triangle ("Matrix Computations", 4th ed., 2013,
+ * §4.2). No test of definiteness: a matrix that is not gives NaN. (The first drawing's Laplacian uses
+ * it; choleskyInto's L D L^T would give other last bits, and the relaxer's verdicts on ties between
+ * collapsing walls follow them.)
+ */
+export function choleskyRootInto(a: Float64Array, n: number): void {
+  for (let j = 0; j < n; j++) {
+    const rj = j * n;
+    let d = a[rj + j];
+    for (let k = 0; k < j; k++) d -= a[rj + k] * a[rj + k];
+    const root = Math.sqrt(d);
+    a[rj + j] = root;
+    const inv = 1 / root;
+    for (let i = j + 1; i < n; i++) {
+      const ri = i * n;
+      let s = a[ri + j];
+      for (let k = 0; k < j; k++) s -= a[ri + k] * a[rj + k];
+      a[ri + j] = s * inv;
+    }
+  }
+}
+
+/** Solve L L^T x = b in place in b with the factor of choleskyRootInto. */
+export function choleskyRootSolveInto(a: Float64Array, n: number, b: Float64Array): void {
+  for (let i = 0; i < n; i++) {
+    const ri = i * n;
+    let s = b[i];
+    for (let k = 0; k < i; k++) s -= a[ri + k] * b[k];
+    b[i] = s / a[ri + i];
+  }
+  for (let i = n - 1; i >= 0; i--) {
+    let s = b[i];
+    for (let k = i + 1; k < n; k++) s -= a[k * n + i] * b[k];
+    b[i] = s / a[i * n + i];
   }
 }

@@ -1,4 +1,4 @@
-// solver stage: dense LU factorisation with partial (row) pivoting, in place on a row-major Float64Array.
+// reference for the tests: dense LU factorisation with partial (row) pivoting, in place on a row-major Float64Array.
 //
 // Standard Gaussian elimination with partial pivoting ("Matrix Computations", 4th ed., 2013, §3.4).
 // The matrix is factored in place as P A = L U (unit lower L below the diagonal, U on and above it);

@@ -1,0 +1,35 @@
+// Reference linear algebra for the tests: what only tests call (the solver factors its own systems with
+// src/linalg). The dense LU of lu.ts solves unsymmetric systems; symmetricFactorInto is the plain
+// LDL^T with its growth test, falling back to diagonal pivoting, and symmetricInertia its inertia.
+
+import {
+  type Inertia, ldltScratch, pivotedFactorInto, plainFactorInto,
+} from '../../src/linalg/ldlt.ts';
+
+export { luFactorInto, luSolveInto } from './lu.ts';
+
+/**
+ * LDL^T of the symmetric n x n row-major matrix `a` in place: first without pivoting, and when that
+ * needs pivoting, from the original matrix with diagonal pivoting; as pivotedFactorInto leaves it,
+ * with the inertia in `out` (solve with symmetricSolveInto).
+ */
+export function symmetricFactorInto(
+  a: Float64Array, n: number, pivots: Int32Array, zeroTolerance: number, out: Inertia,
+): Inertia {
+  const saved = a.slice(0, n * n);
+  const scratch = ldltScratch(n);
+  if (plainFactorInto(a, n, pivots, zeroTolerance, out, scratch)) {
+    // the plain factorisation swaps nothing: the pivots name each row itself
+    return out;
+  }
+  a.set(saved);
+  return pivotedFactorInto(a, n, pivots, zeroTolerance, out, scratch);
+}
+
+/**
+ * Inertia of the symmetric n x n row-major matrix `a`, which is overwritten. A pivot eigenvalue whose
+ * magnitude is at most `zeroTolerance` times the largest |entry| of `a` counts as zero.
+ */
+export function symmetricInertia(a: Float64Array, n: number, zeroTolerance: number): Inertia {
+  return symmetricFactorInto(a, n, new Int32Array(n), zeroTolerance, { negative: 0, zero: 0, positive: 0 });
+}
