@@ -115,6 +115,21 @@ export function bulgeFactorsInto(t: number, out: Float64Array): void {
   out[H2] = (t * s2 - 3 * w * co) / (2 * s2 * s2);
 }
 
+/**
+ * The segment factor h(t) = (t - sin t cos t) / (4 sin^2 t): a wall's signed segment area over its chord
+ * squared, S = c^2 h(t); bulgeFactorsInto's H alone, to the last bit. Odd and increasing on (-pi, pi),
+ * h(t) = t/6 + ... near 0 (series below |t| = 1, as there).
+ */
+export function segmentFactor(t: number): number {
+  if (Math.abs(t) < SERIES_LIMIT) {
+    const t2 = t * t;
+    const sinc = horner(SINC, t2);
+    return (t * horner(U3, t2)) / (4 * (sinc * sinc));
+  }
+  const s = Math.sin(t);
+  return (t - s * Math.cos(t)) / (4 * (s * s));
+}
+
 const FACTORS = new Float64Array(BULGE_FACTORS);
 
 // Write the gradient and Hessian of a function F(d, t) of the chord d = b - a and the bulge into the

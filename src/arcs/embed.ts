@@ -21,7 +21,7 @@
 
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { choleskyRootInto, choleskyRootSolveInto } from '../linalg/cholesky.ts';
-import { bulgeThrough } from './arc.ts';
+import { bulgeThrough, segmentFactor } from './arc.ts';
 
 /** A drawing: junction coordinates (coords[2v], coords[2v + 1]) and one bulge per wall (see arc.ts). */
 export interface Drawing {
@@ -215,8 +215,7 @@ export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float
     const b = (twins[e] / 3) | 0;
     const t = e < twins[e] ? bulges[wallOf[e]] : -bulges[wallOf[e]];
     const c2 = (coords[2 * b] - coords[2 * a]) ** 2 + (coords[2 * b + 1] - coords[2 * a + 1]) ** 2;
-    const h = Math.abs(t) < 1e-8 ? t / 6 : (t - Math.sin(t) * Math.cos(t)) / (4 * Math.sin(t) ** 2);
-    area -= 0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b]) - c2 * h;
+    area -= 0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b]) - c2 * segmentFactor(t);
   }
   const stretch = Math.sqrt(totalArea / area);
   for (let i = 0; i < 2 * junctions; i++) coords[i] *= stretch;

@@ -16,6 +16,7 @@
 // faces (the face on the left of a dart at any level is the class of its face in the map).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
+import { segmentFactor } from './arc.ts';
 
 // Record of one deletion, RECORD numbers: e, t (the wall's darts at A and B), then for A its other
 // darts a1, a2 and their twins x1, x2, and for B its other darts b1, b2 and their twins y1, y2 (read
@@ -413,13 +414,6 @@ function faceArea(tw: Int32Array, bulge: Float64Array, coords: Float64Array, d: 
     e = prevDart(tw[e]);
   } while (e !== d && ++guard < tw.length);
   return area;
-}
-
-// h(t) = (t - sin t cos t) / (4 sin^2 t): the segment area over the chord squared (design.md §4).
-function segmentFactor(t: number): number {
-  if (Math.abs(t) < 1e-4) return t / 6;
-  const s = Math.sin(t);
-  return (t - s * Math.cos(t)) / (4 * s * s);
 }
 
 // h on an even grid of [0, MAX_BULGE], for a quick inverse (school numerics, no source).

@@ -13,34 +13,20 @@
 // NOTE: these are drawing-grade helpers (label placement, view boxes); the solver's arc geometry
 // with derivatives lives in the arcs stage.
 
+import { segmentFactor } from '../arcs/arc.ts';
 import { ZERO_BULGE } from './path.ts';
 
-/** Below this |t| the series of segmentAreaFactor and segmentMomentFactor are used (radians). */
-const SERIES_AREA = 1e-2;
+/** Below this |t| the series of segmentMomentFactor is used (radians). */
 const SERIES_MOMENT = 1e-1;
 /** Below this |t| distances are measured to the chord: the arc is then within c |t| / 4 of it. */
 const STRAIGHT_DISTANCE = 1e-6;
-
-/**
- * f(t) = (t - sin t cos t) / sin^2 t, so that the signed area between chord and arc is S = (c^2 / 4) f(t)
- * (positive when the arc bulges left). Near 0 the series 2t/3 + 4t^3/45 + 4t^5/315 (expansion of the
- * closed form by computer algebra; the closed form is the circular segment area R^2 (theta - sin theta) / 2, theta = 2t).
- */
-export function segmentAreaFactor(t: number): number {
-  if (Math.abs(t) < SERIES_AREA) {
-    const t2 = t * t;
-    return t * (2 / 3 + t2 * (4 / 45 + t2 * (4 / 315)));
-  }
-  const s = Math.sin(t);
-  return (t - s * Math.cos(t)) / (s * s);
-}
 
 /**
  * q(t) such that the segment's first moment about the chord midpoint, along n, is (c^3 / 12) q(t).
  * About the circle's centre the moment of a segment is (2/3) R^3 sin^3(theta / 2) = c^3 / 12
  * (segment centroid at 4 R sin^3(theta/2) / (3 (theta - sin theta)) from the centre, a standard
  * table entry, e.g. "CRC Standard Mathematical Tables", section on plane areas); moving to the chord
- * gives q = 1 - (3/2) f(t) cot t, with series t^2/5 + t^4/21 + 2 t^6/225 + t^8/693 near 0 (q -> 0: a
+ * gives q = 1 - 6 h(t) cot t (h the segment factor of arcs/arc.ts, S = c^2 h), with series t^2/5 + t^4/21 + 2 t^6/225 + t^8/693 near 0 (q -> 0: a
  * flat segment's centroid sits on its chord).
  */
 export function segmentMomentFactor(t: number): number {
@@ -48,7 +34,7 @@ export function segmentMomentFactor(t: number): number {
     const t2 = t * t;
     return t2 * (1 / 5 + t2 * (1 / 21 + t2 * (2 / 225 + t2 / 693)));
   }
-  return 1 - 1.5 * segmentAreaFactor(t) * (Math.cos(t) / Math.sin(t));
+  return 1 - 6 * segmentFactor(t) * (Math.cos(t) / Math.sin(t));
 }
 
 /**

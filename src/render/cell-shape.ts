@@ -2,7 +2,8 @@
 
 import type { ClusterDrawing } from './types.ts';
 import { dartBulge } from './types.ts';
-import { arcBoundsInto, emptyBox, segmentAreaFactor, segmentMomentFactor, segmentWinding, wallDistance } from './arc-geometry.ts';
+import { segmentFactor } from '../arcs/arc.ts';
+import { arcBoundsInto, emptyBox, segmentMomentFactor, segmentWinding, wallDistance } from './arc-geometry.ts';
 import { junctionOf } from '../maps/cubic-map.ts';
 
 /** Area and area-weighted centroid of one cell. */
@@ -66,7 +67,7 @@ export function cellMoments(drawing: ClusterDrawing, walls: Int32Array, f: numbe
     const dy = by - ay;
     const c2 = dx * dx + dy * dy;
     // a left bulge (t > 0) cuts its segment out of the cell on its left
-    const s = 0.25 * c2 * segmentAreaFactor(t);
+    const s = c2 * segmentFactor(t);
     const q = (c2 / 12) * segmentMomentFactor(t);
     area -= s;
     mx -= s * 0.5 * (ax + bx) - dy * q;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import {
   ARC_ARGS, ARC_HESSIAN, BULGE_FACTORS, G, G1, G2, H, H1, H2, arcCurvatureInto, arcEndAngleInto, arcLengthInto,
-  arcSegmentAreaInto, arcStartAngleInto, bulgeFactorsInto, bulgeThrough, wrapAngle,
+  arcSegmentAreaInto, arcStartAngleInto, bulgeFactorsInto, bulgeThrough, segmentFactor, wrapAngle,
 } from '../../src/arcs/arc.ts';
 
 type Primitive = (ax: number, ay: number, bx: number, by: number, t: number, g?: Float64Array, h?: Float64Array) => number;
@@ -102,5 +102,21 @@ describe('arc primitives', () => {
       expect(bulgeThrough(0, 0, 1, Math.tan(t / 2), 2, 0)).toBeCloseTo(t, 12);
     }
     expect(bulgeThrough(0, 0, 1, 0, 2, 0)).toBe(0);
+  });
+});
+
+describe('segmentFactor', () => {
+  it('segmentFactor(t) c^2 equals the classical segment area R^2 (theta - sin theta) / 2, series and closed form alike', () => {
+    // reference: circular segment of central angle theta = 2|t| and radius R = c / (2 |sin t|), chord c = 1;
+    // evaluated where it is well conditioned, and across the series switch at |t| = 1
+    for (const t of [0.02, 0.0100001, 0.0099999, 1.0000001, 0.9999999, 0.3, 1, Math.PI / 2, 2.5, 3.0, -0.7, -2.9]) {
+      const r = 1 / (2 * Math.abs(Math.sin(t)));
+      const theta = 2 * Math.abs(t);
+      const classical = Math.sign(t) * 0.5 * r * r * (theta - Math.sin(theta));
+      expect(segmentFactor(t)).toBeCloseTo(classical, 12);
+    }
+    expect(segmentFactor(0)).toBe(0);
+    // near 0: S ~ (2/3) c h with sagitta h ~ c t / 4, the parabolic segment (Archimedes' quadrature of the parabola)
+    expect(segmentFactor(1e-7)).toBeCloseTo((2 / 3) * (1e-7 / 4), 20);
   });
 });

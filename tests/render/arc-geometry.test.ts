@@ -1,7 +1,7 @@
 // render tests: exact arc extents and segment factors against independent references.
 
 import { describe, expect, it } from 'vitest';
-import { arcBoundsInto, emptyBox, segmentAreaFactor, segmentMomentFactor, wallDistance } from '../../src/render/arc-geometry.ts';
+import { arcBoundsInto, emptyBox, segmentMomentFactor, wallDistance } from '../../src/render/arc-geometry.ts';
 import { mulberry32, referenceCircle, sampleWall } from './reference.ts';
 
 describe('arcBoundsInto', () => {
@@ -47,22 +47,6 @@ describe('arcBoundsInto', () => {
     const box = emptyBox();
     arcBoundsInto(1, 2, -3, 5, 0, box);
     expect(Array.from(box)).toEqual([-3, 2, 1, 5]);
-  });
-});
-
-describe('segmentAreaFactor', () => {
-  it('segmentAreaFactor(t) c^2 / 4 equals the classical segment area R^2 (theta - sin theta) / 2, series and closed form alike', () => {
-    // reference: circular segment of central angle theta = 2|t| and radius R = c / (2 |sin t|), chord c = 1;
-    // evaluated where it is well conditioned, and across the series switch at |t| = 1e-2
-    for (const t of [0.02, 0.0100001, 0.0099999, 0.3, 1, Math.PI / 2, 2.5, 3.0, -0.7, -2.9]) {
-      const r = 1 / (2 * Math.abs(Math.sin(t)));
-      const theta = 2 * Math.abs(t);
-      const classical = Math.sign(t) * 0.5 * r * r * (theta - Math.sin(theta));
-      expect(segmentAreaFactor(t) / 4).toBeCloseTo(classical, 12);
-    }
-    expect(segmentAreaFactor(0)).toBe(0);
-    // near 0: S ~ (2/3) c h with sagitta h ~ c t / 4, the parabolic segment (Archimedes' quadrature of the parabola)
-    expect(segmentAreaFactor(1e-7) / 4).toBeCloseTo((2 / 3) * (1e-7 / 4), 20);
   });
 });
 
