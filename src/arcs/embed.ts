@@ -21,7 +21,12 @@
 
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { choleskyRootInto, choleskyRootSolveInto } from '../linalg/cholesky.ts';
-import { bulgeThrough, segmentFactor } from './arc.ts';
+import * as arc from './arc.ts';
+
+// NOTE: local copies of imported functions (under some loaders, tsx, every use of an import is a
+// getter call).
+const segmentFactor = arc.segmentFactor;
+const bulgeThrough = arc.bulgeThrough;
 
 /** A drawing: junction coordinates (coords[2v], coords[2v + 1]) and one bulge per wall (see arc.ts). */
 export interface Drawing {

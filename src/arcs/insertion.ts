@@ -16,7 +16,11 @@
 // faces (the face on the left of a dart at any level is the class of its face in the map).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
-import { segmentFactor } from './arc.ts';
+import * as arc from './arc.ts';
+
+// NOTE: local copies of imported functions (under some loaders, tsx, every use of an import is a
+// getter call).
+const segmentFactor = arc.segmentFactor;
 
 // Record of one deletion, RECORD numbers: e, t (the wall's darts at A and B), then for A its other
 // darts a1, a2 and their twins x1, x2, and for B its other darts b1, b2 and their twins y1, y2 (read

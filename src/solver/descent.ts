@@ -22,10 +22,11 @@
 
 import { factorStepInto, rigidInto, solveStepInto, stepCurvature } from './kkt.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
-import * as penalty from './penalty.ts';
-import { fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto, scaledGradientMax } from './penalty.ts';
-import type { ClusterProblem } from './residual.ts';
+import { fitPressuresInto, meritOf, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
+import type { ClusterProblem } from './problem.ts';
 import { tangentResidualOf } from './verdict.ts';
+import * as terms from './wall-terms.ts';
+import { perimeterInto } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** Why a descent stopped ('settled': at an equilibrium to within the tolerances, or at the rounding floor). */
@@ -43,8 +44,10 @@ export interface DescentReport {
   chord: number;
 }
 
-// Record length of the per-wall cache (a local copy: see penalty.ts).
-const WALL_STRIDE = penalty.WALL_STRIDE;
+// The per-wall records (local copies: under some loaders, tsx, every use of an import is a getter call).
+const { HESSIAN_BLOCK, M_TT, M_XX, M_YY, WALL_STRIDE, W_C, wallHessianInto } = terms;
+// One wall's Hessian block.
+const BLOCK = new Float64Array(HESSIAN_BLOCK);
 // Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
 // cell area 1).
 const KAPPA_FIRST = 10;
@@ -139,7 +142,7 @@ export function descend(
   let watchSteps = 0;
   let watchChord = Infinity;
   let watchGradient = Infinity;
-  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + 2];
+  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
   for (;;) {
     if (!Number.isFinite(phi) || !Number.isFinite(gmax)) {
       end = 'non-finite';
@@ -194,7 +197,7 @@ export function descend(
     shiftScalesInto(problem, cache, mu, shift);
     let curvatureMax = 0;
     for (let k = 0; k < walls; k++) {
-      const c = cache[k * WALL_STRIDE + 2];
+      const c = cache[k * WALL_STRIDE + W_C];
       const v = c > 0 ? Math.abs(2 * Math.sin(z[t0 + k])) / c : 0;
       if (v > curvatureMax) curvatureMax = v;
     }
@@ -333,7 +336,7 @@ export function descend(
     phi = phiTrial;
     gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
     violation = violationOf(areas, targets, cells);
-    for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + 2];
+    for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
   }
   if (z !== ws.z) ws.z.set(z.subarray(0, dim));
   for (let f = 0; f < cells; f++) ws.z[dim + f] = mu[f];
@@ -371,22 +374,16 @@ function shiftScalesInto(problem: ClusterProblem, cache: Float64Array, mu: Float
   const { junctions, walls, starts, ends, lefts, rights } = problem;
   const t0 = 2 * junctions;
   shift.fill(0, 0, t0);
+  const m = BLOCK;
   for (let k = 0; k < walls; k++) {
-    const w = k * WALL_STRIDE;
-    const c = cache[w + 2];
     const l = lefts[k];
     const r = rights[k];
     const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
-    const gc = c > 0 ? cache[w + 3] / c : 0;
-    const dx = cache[w];
-    const dy = cache[w + 1];
-    const ux = c > 0 ? dx / c : 0;
-    const uy = c > 0 ? dy / c : 0;
-    const h = cache[w + 6];
-    const s = Math.max(Math.abs(gc * (1 - ux * ux) + 2 * d * h), Math.abs(gc * (1 - uy * uy) + 2 * d * h));
+    wallHessianInto(cache, k, d, m);
+    const s = Math.max(Math.abs(m[M_XX]), Math.abs(m[M_YY]));
     shift[2 * starts[k]] += s;
     shift[2 * ends[k]] += s;
-    shift[t0 + k] = Math.abs(c * cache[w + 5] + d * c * c * cache[w + 8]);
+    shift[t0 + k] = Math.abs(m[M_TT]);
   }
   let most = 0;
   for (let i = 0; i < t0 + walls; i++) if (shift[i] > most) most = shift[i];

@@ -14,7 +14,7 @@
 // keeps the angle between chord and tangent), and the host pieces take the bulges of the arcs of the
 // same circle between their new ends.
 
-import type { ClusterProblem } from './residual.ts';
+import type { ClusterProblem } from './problem.ts';
 
 // A wall with |bulge| below STRAIGHT is a segment.
 const STRAIGHT = 1e-9;

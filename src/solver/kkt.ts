@@ -25,19 +25,18 @@
 import {
   type Inertia, type LdltScratch, ldltScratch, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto,
 } from '../linalg/ldlt.ts';
-import type { ClusterProblem } from './residual.ts';
+import type { ClusterProblem } from './problem.ts';
+import * as terms from './wall-terms.ts';
 
-// Offsets of the per-wall cache of penalty.ts (WALL_STRIDE numbers per wall).
-const W_DX = 0;
-const W_DY = 1;
-const W_C = 2;
-const W_G = 3;
-const W_G1 = 4;
-const W_G2 = 5;
-const W_H = 6;
-const W_H1 = 7;
-const W_H2 = 8;
-const WALL_STRIDE = 9;
+// NOTE: local copies of the kernel's bindings (under some loaders, tsx, every use of an import is a
+// getter call).
+const {
+  GRADIENT_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T,
+  areaGradientInto, wallHessianInto,
+} = terms;
+// One wall's Hessian block and area gradient (wall-terms.ts).
+const BLOCK = new Float64Array(HESSIAN_BLOCK);
+const AREA = new Float64Array(GRADIENT_BLOCK);
 
 // A bulge is eliminated when its pivot is at least ELIMINATE times the largest entry of its column.
 const ELIMINATE = 0.05;
@@ -95,8 +94,8 @@ export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
 }
 
 /**
- * Assemble and factor the reduced step system at z (cache: the per-wall values of penaltyEnergyInto
- * at z; mu: pressures of the Hessian; lengthGrad: the perimeter's gradient; change: r, the area change
+ * Assemble and factor the reduced step system at z (cache: the per-wall records of perimeterInto
+ * (wall-terms.ts) at z; mu: pressures of the Hessian; lengthGrad: the perimeter's gradient; change: r, the area change
  * asked of each cell; rigid: the three rigid motions, 3 * 2V). Returns the order of the reduced system
  * and leaves its inertia in kw.inertia, counted with the eliminated pivots' signs, so that the step's
  * B is positive definite on the constraints' null space exactly when kw.inertia.negative = n +
@@ -130,22 +129,19 @@ export function assembleStepInto(
   const { matrix, rhs, slots, eliminated } = kw;
   // which bulges stay: those whose pivot is small against their column
   let kept = 0;
+  const m = BLOCK;
+  const q = AREA;
   for (let k = 0; k < walls; k++) {
-    const w = k * WALL_STRIDE;
-    const c = cache[w + W_C];
     const l = lefts[k];
     const r = rights[k];
     const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
-    const dx = cache[w + W_DX];
-    const dy = cache[w + W_DY];
-    const ux = c > 0 ? dx / c : 0;
-    const uy = c > 0 ? dy / c : 0;
-    const g1 = cache[w + W_G1];
-    const h1 = cache[w + W_H1];
-    const mxt = g1 * ux + 2 * d * h1 * dx;
-    const myt = g1 * uy + 2 * d * h1 * dy;
-    const qt = c * c * h1;
-    const pivot = c * cache[w + W_G2] + d * c * c * cache[w + W_H2] + tau * shift[t0 + k];
+    wallHessianInto(cache, k, d, m);
+    areaGradientInto(cache, k, z, 2 * starts[k], 2 * ends[k], q);
+    const mxt = m[M_XT];
+    const myt = m[M_YT];
+    // -dA_l/dt
+    const qt = -q[Q_T];
+    const pivot = m[M_TT] + tau * shift[t0 + k];
     const column = Math.max(Math.abs(mxt), Math.abs(myt), Math.abs(qt));
     if (Math.abs(pivot) >= ELIMINATE * column && pivot !== 0) {
       slots[k] = -1;
@@ -174,23 +170,14 @@ export function assembleStepInto(
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    const w = k * WALL_STRIDE;
-    const dx = cache[w + W_DX];
-    const dy = cache[w + W_DY];
-    const c = cache[w + W_C];
-    const g1 = cache[w + W_G1];
-    const h = cache[w + W_H];
-    const h1 = cache[w + W_H1];
     const l = lefts[k];
     const r = rights[k];
     const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
-    const ux = c > 0 ? dx / c : 0;
-    const uy = c > 0 ? dy / c : 0;
-    const gc = c > 0 ? cache[w + W_G] / c : 0;
-    // the wall's chord block, as in jacobianInto (residual.ts), with the cross-product terms
-    const mxx = gc * (1 - ux * ux) + 2 * d * h;
-    const mxy = -gc * ux * uy;
-    const myy = gc * (1 - uy * uy) + 2 * d * h;
+    // the wall's chord block, with the cross-product terms
+    wallHessianInto(cache, k, d, m);
+    const mxx = m[M_XX];
+    const mxy = m[M_XY];
+    const myy = m[M_YY];
     const half = 0.5 * d;
     addLower(matrix, n, a, a, mxx);
     addLower(matrix, n, a + 1, a, mxy);
@@ -203,10 +190,11 @@ export function assembleStepInto(
     addLower(matrix, n, b + 1, a, -mxy - half);
     addLower(matrix, n, b + 1, a + 1, -myy);
     // the wall's area gradient: dQ/da, dQ/db (Q added to the left cell, taken from the right one)
-    const qax = 0.5 * z[b + 1] + 2 * h * dx;
-    const qay = -0.5 * z[b] + 2 * h * dy;
-    const qbx = -0.5 * z[a + 1] - 2 * h * dx;
-    const qby = 0.5 * z[a] - 2 * h * dy;
+    areaGradientInto(cache, k, z, a, b, q);
+    const qax = q[Q_AX];
+    const qay = q[Q_AY];
+    const qbx = q[Q_BX];
+    const qby = q[Q_BY];
     if (l >= 0) {
       const row = p0 + l;
       addLower(matrix, n, row, a, -qax);
@@ -224,14 +212,14 @@ export function assembleStepInto(
     const slot = slots[k];
     if (slot >= 0) {
       // a kept bulge: its column as it is
-      const mxt = g1 * ux + 2 * d * h1 * dx;
-      const myt = g1 * uy + 2 * d * h1 * dy;
-      const qt = c * c * h1;
+      const mxt = m[M_XT];
+      const myt = m[M_YT];
+      const qt = -q[Q_T];
       addLower(matrix, n, slot, a, -mxt);
       addLower(matrix, n, slot, a + 1, -myt);
       addLower(matrix, n, slot, b, mxt);
       addLower(matrix, n, slot, b + 1, myt);
-      addLower(matrix, n, slot, slot, c * cache[w + W_G2] + d * c * c * cache[w + W_H2] + tau * shift[t0 + k]);
+      addLower(matrix, n, slot, slot, m[M_TT] + tau * shift[t0 + k]);
       if (l >= 0) addLower(matrix, n, p0 + l, slot, qt);
       if (r >= 0) addLower(matrix, n, p0 + r, slot, -qt);
       rhs[slot] = -lengthGrad[t0 + k];
@@ -369,30 +357,22 @@ export function stepCurvature(
 ): number {
   const { junctions, walls, starts, ends, lefts, rights } = problem;
   const t0 = 2 * junctions;
+  const m = BLOCK;
   let sum = 0;
-  for (let i = 0, m = t0 + walls; i < m; i++) sum += tau * shift[i] * d[i] * d[i];
+  for (let i = 0, dim = t0 + walls; i < dim; i++) sum += tau * shift[i] * d[i] * d[i];
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    const w = k * WALL_STRIDE;
-    const dx = cache[w + W_DX];
-    const dy = cache[w + W_DY];
-    const c = cache[w + W_C];
-    const g1 = cache[w + W_G1];
-    const h = cache[w + W_H];
-    const h1 = cache[w + W_H1];
     const l = lefts[k];
     const r = rights[k];
     const p = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
-    const ux = c > 0 ? dx / c : 0;
-    const uy = c > 0 ? dy / c : 0;
-    const gc = c > 0 ? cache[w + W_G] / c : 0;
-    const mxx = gc * (1 - ux * ux) + 2 * p * h;
-    const mxy = -gc * ux * uy;
-    const myy = gc * (1 - uy * uy) + 2 * p * h;
-    const mxt = g1 * ux + 2 * p * h1 * dx;
-    const myt = g1 * uy + 2 * p * h1 * dy;
-    const mtt = c * cache[w + W_G2] + p * c * c * cache[w + W_H2];
+    wallHessianInto(cache, k, p, m);
+    const mxx = m[M_XX];
+    const mxy = m[M_XY];
+    const myy = m[M_YY];
+    const mxt = m[M_XT];
+    const myt = m[M_YT];
+    const mtt = m[M_TT];
     // the chord moves by e = d_b - d_a; the cross-product term couples a and b antisymmetrically
     const ex = d[b] - d[a];
     const ey = d[b + 1] - d[a + 1];

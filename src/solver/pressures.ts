@@ -12,8 +12,8 @@
 // (n x n, positive definite: every cell is connected to the outside through walls) are solved by
 // Cholesky's method.
 
-import { choleskyInto, choleskySolveInto } from './cholesky.ts';
-import type { ClusterProblem } from './residual.ts';
+import { choleskyInto, choleskySolveInto } from '../linalg/cholesky.ts';
+import type { ClusterProblem } from './problem.ts';
 
 /**
  * Write into `pressures` (length n) the least-squares pressures of the curvatures of state z

@@ -8,10 +8,10 @@
 // lens on its wall, and a cell with more sides into a small copy of itself: the walls of the group
 // keep their bulges (the same shapes, smaller), the walls that leave the group stretch to reach it, and
 // the other cells keep nearly their areas. The whole drawing is then moved so that the smallest group
-// sits at the origin: cell areas are sums of cross products of junction coordinates (residual.ts), so a
+// sits at the origin: cell areas are sums of cross products of junction coordinates (wall-terms.ts), so a
 // cell of area 1e-12 is resolved to the rounding of coordinates near it, not of coordinates of size 1.
 
-import type { ClusterProblem } from './residual.ts';
+import type { ClusterProblem } from './problem.ts';
 
 /**
  * A cell whose drawn area is above its target times SMALL_CELL_FACTOR is shrunk (with the cells of its

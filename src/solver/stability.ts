@@ -18,8 +18,9 @@
 
 import { tridiagonalEigenvaluesInto, tridiagonaliseInto } from '../linalg/symmetric-eigen.ts';
 import { assembleStepInto, rigidInto } from './kkt.ts';
-import { penaltyGradientInto, perimeterInto } from './penalty.ts';
-import type { ClusterProblem } from './residual.ts';
+import { penaltyGradientInto } from './penalty.ts';
+import type { ClusterProblem } from './problem.ts';
+import { perimeterInto } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** Index and zero modes of an equilibrium (see the file header). */

@@ -1,7 +1,7 @@
 // solver stage: the geometric tests that name how a relaxation ended (collapses, order at junctions).
 
 import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
-import type { ClusterProblem } from './residual.ts';
+import type { ClusterProblem } from './problem.ts';
 import type { EquilibriumStatus } from './result.ts';
 
 /** How a relaxation ended, with the wall or cell a collapse names. */

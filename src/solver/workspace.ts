@@ -1,8 +1,8 @@
 // solver stage: the working arrays of the relaxer, allocated once per problem size and reused.
 
 import { type KktWorkspace, kktWorkspace } from './kkt.ts';
-import { WALL_STRIDE } from './penalty.ts';
-import type { ClusterProblem } from './residual.ts';
+import { WALL_STRIDE } from './wall-terms.ts';
+import type { ClusterProblem } from './problem.ts';
 
 /**
  * Every buffer one relaxation needs. Sizes: `size` = 2V + E + n state entries (coordinates, bulges,

@@ -1,12 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { resolveArrangement } from '../../src/maps/resolve.ts';
 import { relax } from '../../src/solver/newton.ts';
-import { problemOf } from '../../src/solver/residual.ts';
+import { problemOf } from '../../src/solver/problem.ts';
 import { checkEquilibrium, certificatePasses } from '../../src/solver/certificate.ts';
 import { lensHostOf, lensRangeOf, slideLensInto } from '../../src/solver/family.ts';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
-import { perimeterInto } from '../../src/solver/penalty.ts';
-import { WALL_STRIDE } from '../../src/solver/penalty.ts';
+import { WALL_STRIDE, perimeterInto } from '../../src/solver/wall-terms.ts';
 
 describe('lens families', () => {
   it('3.2 at equal areas is a family: its lens slides along its wall at constant perimeter and areas (to 1e-10)', () => {

@@ -3,8 +3,9 @@ import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { embedCluster } from '../../src/arcs/embed.ts';
 import { factorStepInto, kktWorkspace, rigidInto, solveStepInto, stepCurvature } from '../../src/solver/kkt.ts';
 import { luFactorInto, luSolveInto, symmetricInertia } from '../linalg/reference.ts';
-import { WALL_STRIDE, penaltyGradientInto, perimeterInto } from '../../src/solver/penalty.ts';
-import { cellAreasInto, jacobianInto, problemOf, residualInto } from '../../src/solver/residual.ts';
+import { penaltyGradientInto } from '../../src/solver/penalty.ts';
+import { WALL_STRIDE, perimeterInto } from '../../src/solver/wall-terms.ts';
+import { cellAreasInto, jacobianInto, problemOf, residualInto } from './reference.ts';
 
 // a few arrangements of 3 to 5 cells, each at its barycentric drawing with made-up pressures: a state
 // far from equilibrium, where every term of the step matters (drawings with a cell below a tenth of the

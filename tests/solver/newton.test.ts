@@ -5,7 +5,7 @@ import { polylineCheck, polylinePasses } from './polyline.ts';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { CubicMap, circleMap, thetaMap } from '../../src/maps/cubic-map.ts';
 import type { Equilibrium } from '../../src/solver/result.ts';
-import { jacobianInto, problemOf } from '../../src/solver/residual.ts';
+import { jacobianInto, problemOf } from './reference.ts';
 import { symmetricInertia } from '../linalg/reference.ts';
 
 

@@ -1,8 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { embedCluster } from '../../src/arcs/embed.ts';
-import { WALL_STRIDE, fitPressuresInto, meritOf, penaltyGradientInto, perimeterInto } from '../../src/solver/penalty.ts';
-import { problemOf } from '../../src/solver/residual.ts';
+import { fitPressuresInto, meritOf, penaltyGradientInto } from '../../src/solver/penalty.ts';
+import { WALL_STRIDE, perimeterInto } from '../../src/solver/wall-terms.ts';
+import { problemOf } from '../../src/solver/problem.ts';
 import { relax } from '../../src/solver/newton.ts';
 
 describe('penalty energy', () => {

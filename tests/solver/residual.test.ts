@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { embedCluster } from '../../src/arcs/embed.ts';
-import { jacobianInto, problemOf, residualInto } from '../../src/solver/residual.ts';
+import { jacobianInto, problemOf, residualInto } from './reference.ts';
 import { luFactorInto, luSolveInto } from '../linalg/reference.ts';
 import { relax } from '../../src/solver/newton.ts';
 

@@ -1,0 +1,245 @@
+// solver stage: the per-wall kernel of the relaxer, the one place a wall's length and area terms are
+// derived.
+//
+// Per wall k from junction a to junction b with bulge t and chord d = b - a, c = |d| (arcs/arc.ts):
+//   length           L = c g(t)
+//   area to its left Q = (a x b)/2 - c^2 h(t)   (added to the cell on the left of its lower dart,
+//                                                taken from the one on its right)
+// With D = p_l - p_r the pressure jump across the wall, the wall's part of the Lagrangian
+// F = sum_k L_k - sum_f p_f (A_f - T_f) is phi = L - D Q, so every pass of the relaxer combines the
+// same two pieces with its own pressure jump: the merit's gradient (penalty.ts), the step's matrix and
+// its curvature (kkt.ts), the shift scales (descent.ts), and the reference residual and Jacobian of the
+// tests. wallTermsInto fills a record per wall (layout below, declared here only) once per iterate;
+// the other functions read one record and take the caller's D.
+//
+// Hessian of phi in the wall's chord and bulge (the cross-product term of Q couples a and b apart):
+//   d2/dd2  = g (I - u u^T) / c + 2 D h I          u = d / c
+//   d2/ddt  = g' u + 2 D h' d
+//   d2/dt2  = c g'' + D c^2 h''
+// and the area gradient dQ/da = (b_y/2 + 2 h d_x, -b_x/2 + 2 h d_y), dQ/db = (-a_y/2 - 2 h d_x,
+// a_x/2 - 2 h d_y), dQ/dt = -c^2 h'.
+//
+// NOTE: a wall's weight (a tension s other than 1, s L in the energy) belongs in the length factors
+// G, G1, G2 of the record, which wallTermsInto writes: every length term any pass uses is read from
+// them, so that is the one factor in one place.
+
+import * as arc from '../arcs/arc.ts';
+import type { ClusterProblem } from './problem.ts';
+
+/** Offset of the chord's x component b_x - a_x in a wall record. */
+export const W_DX = 0;
+/** Offset of the chord's y component. */
+export const W_DY = 1;
+/** Offset of the chord length c. */
+export const W_C = 2;
+/** Offset of the length factor g(t) (L = c g). */
+export const W_G = 3;
+/** Offset of g'(t). */
+export const W_G1 = 4;
+/** Offset of g''(t). */
+export const W_G2 = 5;
+/** Offset of the segment factor h(t) (segment area c^2 h). */
+export const W_H = 6;
+/** Offset of h'(t). */
+export const W_H1 = 7;
+/** Offset of h''(t). */
+export const W_H2 = 8;
+/** Length of one wall's record. */
+export const WALL_STRIDE = 9;
+
+/** Offsets in a Hessian block of wallHessianInto: the chord block, the mixed terms, the bulge term. */
+export const M_XX = 0;
+/** Offset of d2 phi / dd_x dd_y. */
+export const M_XY = 1;
+/** Offset of d2 phi / dd_y^2. */
+export const M_YY = 2;
+/** Offset of d2 phi / dd_x dt. */
+export const M_XT = 3;
+/** Offset of d2 phi / dd_y dt. */
+export const M_YT = 4;
+/** Offset of d2 phi / dt^2. */
+export const M_TT = 5;
+/** Length of a Hessian block. */
+export const HESSIAN_BLOCK = 6;
+
+/** Offsets in an area-gradient block of areaGradientInto: dQ/da, dQ/db, dQ/dt. */
+export const Q_AX = 0;
+/** Offset of dQ/da_y. */
+export const Q_AY = 1;
+/** Offset of dQ/db_x. */
+export const Q_BX = 2;
+/** Offset of dQ/db_y. */
+export const Q_BY = 3;
+/** Offset of dQ/dt. */
+export const Q_T = 4;
+/** Offsets in a gradient block of wallGradientInto, after the area gradient: dL/db (= -dL/da), dL/dt. */
+export const L_X = 5;
+/** Offset of dL/db_y. */
+export const L_Y = 6;
+/** Offset of dL/dt. */
+export const L_T = 7;
+/** Offsets of dphi/da, dphi/db, dphi/dt in a gradient block. */
+export const F_AX = 8;
+/** Offset of dphi/da_y. */
+export const F_AY = 9;
+/** Offset of dphi/db_x. */
+export const F_BX = 10;
+/** Offset of dphi/db_y. */
+export const F_BY = 11;
+/** Offset of dphi/dt. */
+export const F_T = 12;
+/** Length of a gradient block (an area-gradient block is its first 5 numbers). */
+export const GRADIENT_BLOCK = 13;
+
+// NOTE: an imported binding is read through a getter at every use under some loaders (tsx); the hot
+// per-wall code reads these local copies instead.
+const factorsInto = arc.bulgeFactorsInto;
+const G = arc.G;
+const G1 = arc.G1;
+const G2 = arc.G2;
+const H = arc.H;
+const H1 = arc.H1;
+const H2 = arc.H2;
+const segment = arc.segmentFactor;
+const FACTORS = new Float64Array(arc.BULGE_FACTORS);
+
+/**
+ * The one pass per iterate: fills `cache` (WALL_STRIDE numbers per wall) at the geometry of z and the
+ * n cell areas into `areas` (signed polygon area of each cell's junctions plus the signed segment areas
+ * of its walls); returns the perimeter (normalised units). NaN or Infinity when the state is not finite.
+ */
+export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: Float64Array, areas: Float64Array): number {
+  const { walls, starts, ends, lefts, rights, cells, junctions } = problem;
+  const t0 = 2 * junctions;
+  const f = FACTORS;
+  areas.fill(0, 0, cells);
+  let length = 0;
+  for (let k = 0; k < walls; k++) {
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const ax = z[a];
+    const ay = z[a + 1];
+    const bx = z[b];
+    const by = z[b + 1];
+    const dx = bx - ax;
+    const dy = by - ay;
+    const c2 = dx * dx + dy * dy;
+    const c = Math.sqrt(c2);
+    factorsInto(z[t0 + k], f);
+    const w = k * WALL_STRIDE;
+    cache[w + W_DX] = dx;
+    cache[w + W_DY] = dy;
+    cache[w + W_C] = c;
+    cache[w + W_G] = f[G];
+    cache[w + W_G1] = f[G1];
+    cache[w + W_G2] = f[G2];
+    cache[w + W_H] = f[H];
+    cache[w + W_H1] = f[H1];
+    cache[w + W_H2] = f[H2];
+    length += c * f[G];
+    const q = 0.5 * (ax * by - ay * bx) - c2 * f[H];
+    const l = lefts[k];
+    const r = rights[k];
+    if (l >= 0) areas[l] += q;
+    if (r >= 0) areas[r] -= q;
+  }
+  return length;
+}
+
+/**
+ * The cell areas of state z into areas[0..n), as perimeterInto computes them, without the records.
+ */
+export function cellAreasInto(problem: ClusterProblem, z: Float64Array, areas: Float64Array): void {
+  const { walls, starts, ends, lefts, rights, cells, junctions } = problem;
+  areas.fill(0, 0, cells);
+  const t0 = 2 * junctions;
+  for (let k = 0; k < walls; k++) {
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const ax = z[a];
+    const ay = z[a + 1];
+    const bx = z[b];
+    const by = z[b + 1];
+    const dx = bx - ax;
+    const dy = by - ay;
+    const q = 0.5 * (ax * by - ay * bx) - (dx * dx + dy * dy) * segment(z[t0 + k]);
+    if (lefts[k] >= 0) areas[lefts[k]] += q;
+    if (rights[k] >= 0) areas[rights[k]] -= q;
+  }
+}
+
+/** The pressure jump D = p_l - p_r across wall k for cell pressures p (the outside's is 0). */
+export function jumpOf(problem: ClusterProblem, k: number, p: Float64Array): number {
+  const l = problem.lefts[k];
+  const r = problem.rights[k];
+  return (l >= 0 ? p[l] : 0) - (r >= 0 ? p[r] : 0);
+}
+
+/**
+ * The Hessian of phi = L - D Q of wall k in its chord d and bulge t (the block of the file header, the
+ * cross-product term of Q left to the caller: -D/2 at (a_x, b_y), +D/2 at (a_y, b_x)) from its record,
+ * into out (HESSIAN_BLOCK numbers at M_XX .. M_TT). A zero chord has no direction: its length terms
+ * are taken as zero.
+ */
+export function wallHessianInto(cache: Float64Array, k: number, jump: number, out: Float64Array): void {
+  const w = k * WALL_STRIDE;
+  const dx = cache[w + W_DX];
+  const dy = cache[w + W_DY];
+  const c = cache[w + W_C];
+  const g1 = cache[w + W_G1];
+  const h = cache[w + W_H];
+  const h1 = cache[w + W_H1];
+  const ux = c > 0 ? dx / c : 0;
+  const uy = c > 0 ? dy / c : 0;
+  const gc = c > 0 ? cache[w + W_G] / c : 0;
+  out[M_XX] = gc * (1 - ux * ux) + 2 * jump * h;
+  out[M_XY] = -gc * ux * uy;
+  out[M_YY] = gc * (1 - uy * uy) + 2 * jump * h;
+  out[M_XT] = g1 * ux + 2 * jump * h1 * dx;
+  out[M_YT] = g1 * uy + 2 * jump * h1 * dy;
+  out[M_TT] = c * cache[w + W_G2] + jump * c * c * cache[w + W_H2];
+}
+
+/**
+ * The area gradient of wall k (dQ/da, dQ/db, dQ/dt of the file header) at z from its record, into
+ * out[Q_AX .. Q_T]; a and b are the offsets 2 starts[k], 2 ends[k] of its junctions in z.
+ */
+export function areaGradientInto(cache: Float64Array, k: number, z: Float64Array, a: number, b: number, out: Float64Array): void {
+  const w = k * WALL_STRIDE;
+  const dx = cache[w + W_DX];
+  const dy = cache[w + W_DY];
+  const c = cache[w + W_C];
+  const h = cache[w + W_H];
+  out[Q_AX] = 0.5 * z[b + 1] + 2 * h * dx;
+  out[Q_AY] = -0.5 * z[b] + 2 * h * dy;
+  out[Q_BX] = -0.5 * z[a + 1] - 2 * h * dx;
+  out[Q_BY] = 0.5 * z[a] - 2 * h * dy;
+  out[Q_T] = -c * c * cache[w + W_H1];
+}
+
+/**
+ * The gradients of wall k at z from its record, into out (GRADIENT_BLOCK numbers): its area gradient
+ * (as areaGradientInto), its length gradient (dL/db = -dL/da at L_X, L_Y, dL/dt at L_T) and the gradient
+ * of phi = L - D Q (F_AX .. F_T). A zero chord has no direction: its length gradient is taken as zero.
+ */
+export function wallGradientInto(
+  cache: Float64Array, k: number, z: Float64Array, a: number, b: number, jump: number, out: Float64Array,
+): void {
+  areaGradientInto(cache, k, z, a, b, out);
+  const w = k * WALL_STRIDE;
+  const dx = cache[w + W_DX];
+  const dy = cache[w + W_DY];
+  const c = cache[w + W_C];
+  const gc = c > 0 ? cache[w + W_G] / c : 0;
+  const lx = gc * dx;
+  const ly = gc * dy;
+  const lt = c * cache[w + W_G1];
+  out[L_X] = lx;
+  out[L_Y] = ly;
+  out[L_T] = lt;
+  out[F_AX] = -lx - jump * out[Q_AX];
+  out[F_AY] = -ly - jump * out[Q_AY];
+  out[F_BX] = lx - jump * out[Q_BX];
+  out[F_BY] = ly - jump * out[Q_BY];
+  out[F_T] = lt + jump * c * c * cache[w + W_H1];
+}
