@@ -22,6 +22,7 @@
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { choleskyRootInto, choleskyRootSolveInto } from '../linalg/cholesky.ts';
 import * as arc from './arc.ts';
+import { junctionInOrder } from './junction.ts';
 
 // NOTE: local copies of imported functions (under some loaders, tsx, every use of an import is a
 // getter call).
@@ -205,7 +206,7 @@ export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float
   for (let round = 0; round < REPAIR_ROUNDS; round++) {
     let bad = false;
     for (let v = 0; v < junctions; v++) {
-      if (inOrder(twins, wallOf, coords, bulges, v)) continue;
+      if (junctionInOrder(twins, wallOf, coords, bulges, 0, v)) continue;
       bad = true;
       for (let i = 0; i < 3; i++) bulges[wallOf[3 * v + i]] *= 0.5;
     }
@@ -224,25 +225,4 @@ export function embedClusterInto(map: CubicMap, totalArea: number, coords: Float
   }
   const stretch = Math.sqrt(totalArea / area);
   for (let i = 0; i < 2 * junctions; i++) coords[i] *= stretch;
-}
-
-// Whether the three arcs at junction v leave it in counter-clockwise order (darts 3v, 3v+1, 3v+2).
-function inOrder(twins: Int32Array, wallOf: Int32Array, coords: Float64Array, bulges: Float64Array, v: number): boolean {
-  let a0 = 0;
-  let d1 = 0;
-  const TAU = 2 * Math.PI;
-  for (let i = 0; i < 3; i++) {
-    const e = 3 * v + i;
-    const w = (twins[e] / 3) | 0;
-    const t = e < twins[e] ? bulges[wallOf[e]] : -bulges[wallOf[e]];
-    const angle = Math.atan2(coords[2 * w + 1] - coords[2 * v + 1], coords[2 * w] - coords[2 * v]) + t;
-    if (i === 0) {
-      a0 = angle;
-      continue;
-    }
-    const d = (((angle - a0) % TAU) + TAU) % TAU;
-    if (i === 1) d1 = d;
-    else return d1 > 0 && d1 < d;
-  }
-  return false;
 }

@@ -1,6 +1,7 @@
 // solver stage: the geometric tests that name how a relaxation ended (collapses, order at junctions).
 
 import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
+import { junctionInOrder } from '../arcs/junction.ts';
 import type { ClusterProblem } from './problem.ts';
 import type { EquilibriumStatus } from './result.ts';
 
@@ -23,25 +24,7 @@ const COLLAPSE_SPREAD = 10;
 /** Whether the walls at every junction of state z leave it in the map's counter-clockwise order. */
 export function ordersHold(problem: ClusterProblem, z: Float64Array): boolean {
   const { junctions, twins, wallOf } = problem;
-  const t0 = 2 * junctions;
-  const TAU = 2 * Math.PI;
-  for (let v = 0; v < junctions; v++) {
-    let first = 0;
-    let d1 = 0;
-    for (let i = 0; i < 3; i++) {
-      const e = 3 * v + i;
-      const w = (twins[e] / 3) | 0;
-      const t = e < twins[e] ? z[t0 + wallOf[e]] : -z[t0 + wallOf[e]];
-      const angle = Math.atan2(z[2 * w + 1] - z[2 * v + 1], z[2 * w] - z[2 * v]) + t;
-      if (i === 0) {
-        first = angle;
-        continue;
-      }
-      const d = (((angle - first) % TAU) + TAU) % TAU;
-      if (i === 1) d1 = d;
-      else if (!(d1 > 0 && d > d1)) return false;
-    }
-  }
+  for (let v = 0; v < junctions; v++) if (!junctionInOrder(twins, wallOf, z, z, 2 * junctions, v)) return false;
   return true;
 }
 
