@@ -2,7 +2,7 @@
 //
 // An arc runs from a = (ax, ay) to b = (bx, by). Its bulge t in (-pi, pi) is the angle from the chord
 // direction a->b to the arc's tangent at a. POSITIVE t bulges to the LEFT of a->b (the tangent at a is
-// the chord direction turned counter-clockwise by t). With chord length c = |b - a| (design.md §4):
+// the chord direction turned counter-clockwise by t). With chord length c = |b - a| (circular arcs, school geometry):
 //
 //   length        L = c t / sin t                      = c g(t),   g = t / sin t
 //   segment area  S = (c^2/4) (t - sin t cos t)/sin^2 t = c^2 h(t), h = (t - sin t cos t) / (4 sin^2 t)

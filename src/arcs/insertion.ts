@@ -2,7 +2,7 @@
 //
 // Every bridgeless cubic plane map with at least 4 junctions has a wall whose deletion (then smoothing
 // the two junctions left with two walls) leaves a bridgeless cubic plane map with one face fewer
-// (design.md §3). Walls are deleted that way down to the theta graph, whose three faces are drawn as a
+// (the last ear of an ear decomposition is such a wall). Walls are deleted that way down to the theta graph, whose three faces are drawn as a
 // double bubble with the right areas (a straight middle wall and two outer arcs). The walls are then
 // put back in reverse order: each new wall's junctions are placed on the arcs they split (at the arcs'
 // midpoints; a lens takes the middle third of its host wall), and its bulge is chosen so that it cuts
@@ -401,7 +401,7 @@ function setBulge(tw: Int32Array, bulge: Float64Array, d: number, t: number): vo
 }
 
 // Signed area of the face on the left of dart d (walked counter-clockwise for a cell): the polygon of
-// its junctions less, per dart, the segment on its left (design.md §4).
+// its junctions less, per dart, the segment on its left.
 function faceArea(tw: Int32Array, bulge: Float64Array, coords: Float64Array, d: number): number {
   let area = 0;
   let e = d;

@@ -75,7 +75,7 @@ export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, 
     arrangement: label, code: cluster.code, targetAreas: [...areas], status: eq.status, perimeter: eq.perimeter,
     pressures: [...eq.pressures], areas: [...eq.areas], coords: [...eq.coords], bulges: [...eq.bulges],
     curvatures: [...eq.curvatures], certificate: eq.certificate, index: eq.index, zeroModes: eq.zeroModes,
-    iterations: eq.iterations, continuationSolves: eq.continuationSolves, collapsingWall: eq.collapsingWall,
+    iterations: eq.iterations, restarts: eq.restarts, collapsingWall: eq.collapsingWall,
     collapsingCell: eq.collapsingCell, becomes: t1Neighbour(cluster, eq),
   };
 }

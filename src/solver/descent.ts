@@ -45,7 +45,7 @@ export interface DescentReport {
 }
 
 // The per-wall records (local copies: under some loaders, tsx, every use of an import is a getter call).
-const { HESSIAN_BLOCK, M_TT, M_XX, M_YY, WALL_STRIDE, W_C, wallHessianInto } = terms;
+const { HESSIAN_BLOCK, M_TT, M_XX, M_YY, WALL_STRIDE, W_C, W_G, W_G1, wallHessianInto } = terms;
 // One wall's Hessian block.
 const BLOCK = new Float64Array(HESSIAN_BLOCK);
 // Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
@@ -69,11 +69,10 @@ const TANGENT_SETTLED = 1e-11;
 // targets (a start may draw small cells with short walls that grow first).
 const SETTLED = 0.02;
 // Early collapse: below WATCH collapse lengths the shortest wall is watched; when after WATCH_STEPS
-// steps its chord is below WATCH_SHRINK of where it was and the gradient above WATCH_GRADIENT of where
-// it was, it counts as collapsing.
+// steps its chord is below where it was and the gradient above WATCH_GRADIENT of where it was, it
+// counts as collapsing.
 const WATCH = 50;
 const WATCH_STEPS = 3;
-const WATCH_SHRINK = 1;
 const WATCH_GRADIENT = 0.5;
 // Close enough for Newton's own steps: gradient and area error below ENDGAME.
 const ENDGAME = 1e-2;
@@ -168,8 +167,8 @@ export function descend(
       break;
     }
     // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
-    const shortChord = shortest(problem, cache, targets);
-    const shortWall = SHORTEST_WALL;
+    const shortWall = shortest(problem, cache, targets);
+    const shortChord = relativeLength(problem, cache, targets, shortWall);
     if (violation <= SETTLED && shortChord < opt.collapseLength) {
       end = 'collapse';
       break;
@@ -180,7 +179,7 @@ export function descend(
     const watch = WATCH * opt.collapseLength;
     if (violation <= SETTLED && shortChord < watch && shortWall === watched) {
       watchSteps++;
-      if (watchSteps >= WATCH_STEPS && shortChord < WATCH_SHRINK * watchChord && gmax > WATCH_GRADIENT * watchGradient) {
+      if (watchSteps >= WATCH_STEPS && shortChord < watchChord && gmax > WATCH_GRADIENT * watchGradient) {
         end = 'collapse';
         break;
       }
@@ -340,15 +339,15 @@ export function descend(
   }
   if (z !== ws.z) ws.z.set(z.subarray(0, dim));
   for (let f = 0; f < cells; f++) ws.z[dim + f] = mu[f];
-  const chord = shortest(problem, cache, targets);
-  return { end, iterations, wall: SHORTEST_WALL, chord };
+  const wall = shortest(problem, cache, targets);
+  return { end, iterations, wall, chord: relativeLength(problem, cache, targets, wall) };
 }
 
 // Whether the gradient's rounding floor at the state of the cache lies above CLOSE (see FLOOR_ULPS).
 function nearFullCircle(cache: Float64Array, walls: number): boolean {
   let most = 0;
   for (let k = 0; k < walls; k++) {
-    const v = Math.abs(cache[k * WALL_STRIDE + 4]);
+    const v = Math.abs(cache[k * WALL_STRIDE + W_G1]);
     if (v > most) most = v;
   }
   return FLOOR_ULPS * Number.EPSILON * most > CLOSE;
@@ -406,29 +405,31 @@ function violationOf(areas: Float64Array, targets: Float64Array, cells: number):
   return worst;
 }
 
-// The shortest wall, by arc length (from the perimeter pass's cache: chord times g(t)) relative to sqrt
-// of the smaller target area on its two sides; its wall is left in SHORTEST_WALL. (By length, not chord:
-// the outer wall of a large cell beside a tiny one has a tiny chord and a bulge near pi, and is long.)
-let SHORTEST_WALL = 0;
+// The shortest wall, by arc length (from the perimeter pass's records: chord times g(t)) relative to sqrt
+// of the smaller target area on its two sides. (By length, not chord: the outer wall of a large cell
+// beside a tiny one has a tiny chord and a bulge near pi, and is long.)
 function shortest(problem: ClusterProblem, cache: Float64Array, targets: Float64Array): number {
-  const { walls, lefts, rights } = problem;
   let wall = 0;
   let chord = Infinity;
-  for (let k = 0; k < walls; k++) {
-    const l = lefts[k];
-    const r = rights[k];
-    const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
-    const c = (cache[k * WALL_STRIDE + 2] * cache[k * WALL_STRIDE + 3]) / Math.sqrt(area);
+  for (let k = 0; k < problem.walls; k++) {
+    const c = relativeLength(problem, cache, targets, k);
     if (c < chord) {
       chord = c;
       wall = k;
     }
   }
-  SHORTEST_WALL = wall;
-  return chord;
+  return wall;
 }
 
-// Whether a trial state keeps every bulge inside (-pi, pi) and no chord below SHRINK of its length at z.
+// Wall k's arc length (chord times g(t), from its record) relative to sqrt of the smaller target area on
+// its two sides.
+function relativeLength(problem: ClusterProblem, cache: Float64Array, targets: Float64Array, k: number): number {
+  const l = problem.lefts[k];
+  const r = problem.rights[k];
+  const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
+  return (cache[k * WALL_STRIDE + W_C] * cache[k * WALL_STRIDE + W_G]) / Math.sqrt(area);
+}
+
 function admissible(problem: ClusterProblem, trial: Float64Array, chords: Float64Array): boolean {
   const { walls, starts, ends, junctions } = problem;
   const t0 = 2 * junctions;

@@ -11,7 +11,7 @@
 // area changes asked for and R the three rigid motions (unit translations, rotation about the
 // centroid). lambda are the new pressures. A bulge enters only its own wall's terms, so B's bulge block
 // is diagonal: each bulge is eliminated by one rank-one update of the rows of its wall's four
-// coordinates and its two cells' pressures (design.md §5), leaving an order of 2V + n + 3 plus the
+// coordinates and its two cells' pressures, leaving an order of 2V + n + 3 plus the
 // walls whose bulge pivot is too small to eliminate safely (a semicircle's is 0 at equilibrium). The
 // reduced matrix is factored by the symmetric indefinite LDL^T of linalg/ldlt.ts, whose inertia tells whether
 // B is positive definite on the null space of the constraints (Haynsworth inertia additivity: the

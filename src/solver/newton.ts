@@ -1,6 +1,6 @@
 // solver stage: relax a cluster to its equilibrium: a first drawing, a constrained Newton descent, a verdict.
 //
-// Pipeline of one call (design.md §5):
+// Pipeline of one call:
 //   1. normalise: lengths in units of sqrt(mean target area), so the mean cell area is 1;
 //   2. start from the barycentric drawing (arcs/embed.ts), or from the construction-path drawing
 //      (arcs/insertion.ts) when the barycentric one draws a cell below SMALL_START of its area (nested
@@ -189,7 +189,7 @@ function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
     curvatures: new Float64Array(0),
     areas: Float64Array.of(area),
     iterations: 0,
-    continuationSolves: 0,
+    restarts: 0,
     certificate: undefined as unknown as Certificate,
     index: 0,
     zeroModes: 0,
@@ -380,7 +380,7 @@ export function relaxFrom(
   if (warm.status === 'ok') return warm;
   const cold = relax(map, areas, options);
   cold.iterations += warm.iterations;
-  cold.continuationSolves += 1;
+  cold.restarts += 1;
   return cold.status === 'ok' ? cold : warm;
 }
 
@@ -428,7 +428,7 @@ function answerOf(
     curvatures,
     areas: achieved,
     iterations: attempt.iterations,
-    continuationSolves: restarts,
+    restarts,
     certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }),
     index: null,
     zeroModes: null,

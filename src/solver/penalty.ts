@@ -84,7 +84,7 @@ export function penaltyGradientInto(
 }
 
 /**
- * The largest entry of the last penaltyGradientInto's gradient in residualInto's scaling: junction rows
+ * The largest entry of the last penaltyGradientInto's gradient, scaled as the residual is judged: junction rows
  * as they are (at Laplace-Young balance they are sums of unit tangents), bulge rows as the relative
  * Laplace-Young error |kappa - (p_r - p_l)| / (1 + |p_l - p_r|) (they are c^2 h' times the curvature
  * error, which the raw gradient of a short wall would hide).

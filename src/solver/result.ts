@@ -47,10 +47,10 @@ export interface Equilibrium {
   iterations: number;
   /**
    * Relaxations begun again: from a second first drawing (relax), or the cold relax after a warm one
-   * (relaxFrom); 0 when the first descent gave the verdict. (The name is that of earlier versions,
-   * which continued in the areas.)
+   * (relaxFrom); 0 when the first descent gave the verdict. (Earlier versions, which continued in the
+   * areas, called it continuationSolves.)
    */
-  continuationSolves: number;
+  restarts: number;
   /** The independent check of this answer (checkEquilibrium). */
   certificate: Certificate;
   /**

@@ -6,7 +6,7 @@ import type { ClusterProblem } from './problem.ts';
 
 /**
  * Every buffer one relaxation needs. Sizes: `size` = 2V + E + n state entries (coordinates, bulges,
- * pressures; residual.ts), `dim` = 2V + E geometry unknowns. The contents are scratch between calls.
+ * pressures; problem.ts), `dim` = 2V + E geometry unknowns. The contents are scratch between calls.
  */
 export interface Workspace {
   /** Current state, length size. */
@@ -15,8 +15,6 @@ export interface Workspace {
   trial: Float64Array;
   /** The start of a relaxation, kept for a second attempt, length size. */
   saved: Float64Array;
-  /** Residual of the equilibrium equations at z, length size. */
-  r: Float64Array;
   /** Normalised target areas (mean 1), length n. */
   targets: Float64Array;
   /** Cell areas at z, length n. */
@@ -72,7 +70,6 @@ export function workspaceFor(problem: ClusterProblem): Workspace {
       z: new Float64Array(size),
       trial: new Float64Array(size),
       saved: new Float64Array(size),
-      r: new Float64Array(size),
       targets: new Float64Array(cells),
       areas: new Float64Array(cells),
       trialAreas: new Float64Array(cells),

@@ -73,7 +73,7 @@ export function locateBoundary(ctx: PathContext, c: number, ok: KnownState, fail
   // "existence unknown"): no boundary.
   if (status === 'no-convergence') return null;
   // zero modes counted at the sample (near the collapse a softening mode can pass for one), and at
-  // least one per lens: a 2-sided cell slides along its wall of constant curvature (design.md §5)
+  // least one per lens: a 2-sided cell slides along its wall of constant curvature
   const lenses = ctx.set.candidates[c].sides.filter((k) => k === 2).length;
   const zeroModes = Math.max(ok.state.equilibrium.zeroModes ?? 0, lenses);
   if (wall !== null && zeroModes === 0) {

@@ -19,15 +19,15 @@ const BULGES = [0, 1e-7, -3e-4, 0.2, -0.7, 0.999, 1.001, -1.3, 2.094395102393195
 const POINT = [0.3, -0.2, 1.4, 0.5];
 
 describe('arc primitives', () => {
-  it('bulgeFactorsInto matches the closed forms of design.md §4 away from t = 0', () => {
-    // source: design.md §4 formulas L = c t / sin t, S = (c^2/4)(t - sin t cos t)/sin^2 t
+  it('bulgeFactorsInto matches the closed forms of the circular arc away from t = 0', () => {
+    // source: the arc and segment of a circle (school geometry, no source): L = c t / sin t, S = (c^2/4)(t - sin t cos t)/sin^2 t
     const f = new Float64Array(BULGE_FACTORS);
     for (const t of [0.05, 0.5, 1.5, -2.5, 3]) {
       bulgeFactorsInto(t, f);
       expect(f[G]).toBeCloseTo(t / Math.sin(t), 12);
       expect(f[H] / ((t - Math.sin(t) * Math.cos(t)) / (4 * Math.sin(t) ** 2))).toBeCloseTo(1, 12);
     }
-    // series at 0: t/sin t = 1 + t^2/6 + ..., (t - sin t cos t)/sin^2 t = 2t/3 + ... (design.md §4)
+    // series at 0: t/sin t = 1 + t^2/6 + ..., (t - sin t cos t)/sin^2 t = 2t/3 + ... (Taylor series)
     bulgeFactorsInto(0, f);
     expect([f[G], f[G1], f[G2], f[H], f[H1], f[H2]]).toEqual([1, 0, 1 / 3, 0, 1 / 6, 0]);
   });
@@ -60,7 +60,7 @@ describe('arc primitives', () => {
   });
 
   it('tangent angles turn the chord by +t at the start and point back turned by -t at the end', () => {
-    // convention of design.md §4: t is the angle from the chord to the tangent at a, positive to the left
+    // the project's convention (arcs/arc.ts): t is the angle from the chord to the tangent at a, positive to the left
     expect(arcStartAngleInto(0, 0, 1, 0, 0.4)).toBeCloseTo(0.4, 15);
     expect(arcEndAngleInto(0, 0, 1, 0, 0.4)).toBeCloseTo(wrapAngle(Math.PI - 0.4), 15);
   });

@@ -35,7 +35,7 @@ describe('drawByInsertionInto', () => {
 
   it('drawByInsertionInto draws every cluster of 3 cells as a valid drawing with its target areas', () => {
     // each wall put back cuts its merged cell into the two target areas (bulge fitted to the segment
-    // area of design.md §4); checked by the independent certificate
+    // area c^2 h(t) of arcs/arc.ts); checked by the independent certificate
     for (const cluster of enumerateClusters(3)) {
       const areas = Float64Array.of(1, 2, 0.5);
       const { drawn, coords, bulges } = draw(cluster.map, areas);
@@ -48,7 +48,7 @@ describe('drawByInsertionInto', () => {
   });
 
   it('drawByInsertionInto draws every cluster with n <= 6, finite, bulges inside (-pi, pi), most at their areas', () => {
-    // the construction path exists for every bridgeless cubic plane map (design.md §3); a wall whose
+    // the construction path exists for every bridgeless cubic plane map (the last ear of an ear decomposition is deletable); a wall whose
     // fitted bulge would pass the limit keeps the limit, so some drawings miss their areas
     let exact = 0;
     let total = 0;

@@ -59,7 +59,7 @@ export function run(): number {
             kinds[r.status] = (kinds[r.status] ?? 0) + 1;
             if (r.status === 'ok') okIterations += r.iterations;
             else failIterations += r.iterations;
-            restarts += r.continuationSolves;
+            restarts += r.restarts;
           }
         }
         times.push((performance.now() - t0) / 1000);

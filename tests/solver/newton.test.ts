@@ -127,7 +127,7 @@ describe('relax', () => {
   });
 
   it('relax scales: areas times s give perimeter times sqrt(s) (s = 1e-3, 1e3)', () => {
-    // source: design.md §4 (dimensional analysis: length scales as the square root of area)
+    // source: dimensional analysis, length scales as the square root of area (common practice, no source)
     const [k4] = clustersWithSides(3, [3, 3, 3]);
     const areas = Float64Array.of(1, 2, 3.5);
     const base = relax(k4, areas);
@@ -218,7 +218,8 @@ describe('relax', () => {
   });
 
   it('relax reports the index and zero modes of the full KKT matrix, unclamped', () => {
-    // reference: the inertia of the full bordered Jacobian (jacobianInto, symmetricInertia); design.md §5:
+    // reference: the inertia of the full bordered Jacobian (jacobianInto, symmetricInertia), by the law of inertia
+    // and the Schur complement ("Matrix Computations", 4th ed., 2013, §4.4):
     // index = negative eigenvalues - (n area constraints + 3 rigid motions), zero modes = zero eigenvalues
     let seed = 3;
     const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647);
@@ -246,7 +247,7 @@ describe('relax', () => {
   });
 
   it('relax takes the same path at every scale: areas times 1e-3 and 1e3 end alike', () => {
-    // design.md §4: scaling the areas scales the cluster; the relaxer works in units of sqrt(mean area),
+    // scaling the areas scales the cluster (dimensional analysis); the relaxer works in units of sqrt(mean area),
     // so the verdicts must not depend on the scale (common practice, no source)
     const base = [1, 2, 3, 4];
     for (const c of [...enumerateClusters(4)].slice(0, 6)) {

@@ -45,7 +45,7 @@ describe('penalty energy', () => {
   });
 
   it('fitPressuresInto gives back the pressures of a certified equilibrium', () => {
-    // at an equilibrium grad P = sum p_f grad A_f exactly (design.md §5), so the least-squares fit of the
+    // at an equilibrium grad P = sum p_f grad A_f exactly (the Lagrange condition of the area-constrained perimeter), so the least-squares fit of the
     // pressures to the shape is exact; the answers' pressures come from the relaxer's own steps
     let checked = 0;
     for (const c of [...enumerateClusters(4)]) {

@@ -81,7 +81,7 @@ describe('sweepPath', () => {
     // a smooth function with a simple zero is linear near it (first-order expansion, common practice, no source): chord(at - h) is
     // proportional to h, so chord(2h) / chord(h) = 2 unless `at` is off by a fraction of h.
     // Beyond the boundary the independent ranking must not certify the candidate, and its failure
-    // must name the same arrangement for the T1 swap (design.md §5).
+    // must name the same arrangement for the T1 swap.
     const s = sweep('1, 1, 1, t', path(0.1, 4, 12));
     const located = s.boundaries.filter((b) => b.status === 'wall-collapse' && b.zeroModes === 0);
     expect(located.length).toBeGreaterThanOrEqual(1);
