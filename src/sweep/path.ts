@@ -9,13 +9,13 @@
 // (transitions.ts) and the existence boundaries of the competitors (boundaries.ts) are then located.
 
 import { UsageError } from '../errors.ts';
-import { RANK_LIMIT } from '../catalogue/rank.ts';
-import { candidateAreasInto, sweepCandidates, t1Neighbour } from './candidates.ts';
-import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type PathDomain } from './domain.ts';
+import { t1Neighbour } from './candidates.ts';
+import type { PathDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
 import { rankPlaced } from './order.ts';
 import { type KnownState, type PathContext, probeOptionsOf } from './probe.ts';
-import { type TrackedState, emptyCounts, trackStep } from './track.ts';
+import { prepareSweep } from './prepare.ts';
+import { type TrackedState, trackStep } from './track.ts';
 import { locateBoundary } from './boundaries.ts';
 import { type PathPoint, locateTransitions } from './transitions.ts';
 import type { Boundary, Interval, PathSweep, Placed, SweepOptions, Transition } from './types.ts';
@@ -29,26 +29,9 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   if (!(Number.isInteger(domain.samples) && domain.samples >= 2)) {
     throw new UsageError(`Path has ${domain.samples} samples when expected a whole number of at least 2.`);
   }
-  checkFormulasOnDomain(formulas, domain);
-  if (formulas.length > RANK_LIMIT) {
-    throw new UsageError(`${formulas.length} cells is above ${RANK_LIMIT} when expected at most ${RANK_LIMIT} cells for a sweep.`);
-  }
-  const competitorCount = options.competitors ?? 4;
-  const maxSkip = options.maxSkip ?? 16;
-  const tolerance = options.tolerance ?? 1e-6;
-  if (!(Number.isInteger(competitorCount) && competitorCount >= 1)) throw new UsageError(`Competitors is ${competitorCount} when expected a whole number of at least 1.`);
-  if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
-  if (!(tolerance > 0 && Number.isFinite(tolerance))) throw new UsageError(`Tolerance is ${tolerance} when expected a positive finite number.`);
-  const newton = options.newton;
-  const set = sweepCandidates(formulas, options.filter);
-  const { candidates } = set;
-  const points = domainSamples(domain);
-  const count = points.count;
+  const { competitorCount, maxSkip, tolerance, newton, set, candidates, points, count, slotValues, counts, areasAt } =
+    prepareSweep(formulas, domain, options, 'path');
   const xs = points.values;
-  const m = formulas.length;
-  const slotValues = new Float64Array(count * m);
-  for (let k = 0; k < count; k++) slotValuesInto(formulas, sampleScope(points, k), slotValues.subarray(k * m, (k + 1) * m));
-  const counts = emptyCounts();
 
   // track every candidate along the samples
   const states: (TrackedState | null)[][] = candidates.map(() => new Array<TrackedState | null>(count).fill(null));
@@ -58,14 +41,12 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   const byCode = new Map<string, number[]>();
   for (const cand of candidates) byCode.set(cand.code, [...(byCode.get(cand.code) ?? []), cand.index]);
   const skip = new Int32Array(candidates.length).fill(1);
-  const areasAtSample = (c: number, k: number): Float64Array =>
-    candidateAreasInto(candidates[c], slotValues.subarray(k * m, (k + 1) * m), new Float64Array(candidates[c].slots.length));
   for (let k = 0; k < count; k++) {
     for (const cand of candidates) {
       const c = cand.index;
       const prev = k > 0 ? states[c][k - 1] : null;
       if (prev === null && k < nextTry[c]) continue;
-      const areas = areasAtSample(c, k);
+      const areas = areasAt(c, k);
       // no own state: start from a sibling's (same arrangement, other assignment) at this sample, as a ranking does
       const start = prev ?? siblingState(c, k);
       const step = trackStep(cand.cluster.map, areas, start, newton, counts, prev === null ? 'cold' : 'warm');
@@ -109,7 +90,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   function backfill(c: number, k: number): void {
     for (let j = k - 1; j >= 0; j--) {
       if (states[c][j] !== null) return;
-      const areas = areasAtSample(c, j);
+      const areas = areasAt(c, j);
       const step = trackStep(candidates[c].cluster.map, areas, states[c][j + 1], newton, counts, 'warm');
       statuses[c][j] = step.equilibrium.status;
       if (!step.ok) {

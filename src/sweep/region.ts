@@ -7,13 +7,12 @@
 // neighbours where it was missing (breadth first), so a region does not depend on where it was entered.
 
 import { UsageError } from '../errors.ts';
-import { RANK_LIMIT } from '../catalogue/rank.ts';
 import type { Equilibrium } from '../solver/result.ts';
-import { candidateAreasInto, sweepCandidates } from './candidates.ts';
-import { checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto, type GridDomain, type TriangleDomain } from './domain.ts';
+import type { GridDomain, TriangleDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
 import { rankPlaced } from './order.ts';
-import { type TrackedState, emptyCounts, trackStep } from './track.ts';
+import { prepareSweep } from './prepare.ts';
+import { type TrackedState, trackStep } from './track.ts';
 import type { Placed, Region, RegionSweep, SweepOptions } from './types.ts';
 
 /**
@@ -68,24 +67,9 @@ export function sampleNeighbours(domain: GridDomain | TriangleDomain): number[][
  * @throws UsageError when an option is out of range or there are more cells than a ranking takes.
  */
 export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain | TriangleDomain, options: SweepOptions = {}): RegionSweep {
-  const maxSkip = options.maxSkip ?? 8;
-  if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
   const neighbours = sampleNeighbours(domain);
-  checkFormulasOnDomain(formulas, domain);
-  if (formulas.length > RANK_LIMIT) {
-    throw new UsageError(`${formulas.length} cells is above ${RANK_LIMIT} when expected at most ${RANK_LIMIT} cells for a sweep.`);
-  }
-  const newton = options.newton;
-  const set = sweepCandidates(formulas, options.filter);
-  const { candidates } = set;
-  const points = domainSamples(domain);
-  const count = points.count;
-  const m = formulas.length;
-  const slotValues = new Float64Array(count * m);
-  for (let k = 0; k < count; k++) slotValuesInto(formulas, sampleScope(points, k), slotValues.subarray(k * m, (k + 1) * m));
-  const counts = emptyCounts();
-  const areasAt = (c: number, k: number): Float64Array =>
-    candidateAreasInto(candidates[c], slotValues.subarray(k * m, (k + 1) * m), new Float64Array(candidates[c].slots.length));
+  const { maxSkip, newton, set, candidates, points, count, slotValues, counts, areasAt } =
+    prepareSweep(formulas, domain, options, 'region');
 
   const states: (TrackedState | null)[][] = candidates.map(() => new Array<TrackedState | null>(count).fill(null));
   const tried: Uint8Array[] = candidates.map(() => new Uint8Array(count));

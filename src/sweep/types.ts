@@ -13,7 +13,10 @@ export interface SweepOptions {
   filter?: ArrangementFilter;
   /** Candidates ranked within this many at some sample are the competitors (plotted, boundaries located). @default 4 */
   competitors?: number;
-  /** Most samples a candidate that failed from a cold start is skipped before it is tried again. @default 16 */
+  /**
+   * Most samples a candidate that failed from a cold start is skipped before it is tried again.
+   * @default 16 along a path, 8 over a region (prepare.ts SWEEP_DEFAULTS)
+   */
   maxSkip?: number;
   /** Width in the parameter to which transitions and boundaries are located. @default 1e-6 */
   tolerance?: number;
