@@ -131,62 +131,12 @@ export function renderRegionMap(options: RegionMapOptions): string {
   const titleH = options.title === undefined ? 0 : 28;
   const left = grid.kind === 'rectangle' ? 76 : 40;
   const top = 16 + titleH;
-  const cells: MapCell[] = [];
+  const layout = grid.kind === 'rectangle'
+    ? rectangleLayout(grid, winners.length, sizePx, left, top)
+    : triangleLayout(grid, winners.length, sizePx, left, top);
+  const { cells, mapW, mapH } = layout;
+  const axes = frameSvg(layout, n);
   const out: string[] = [];
-  let mapW: number;
-  let mapH: number;
-  let axes = '';
-  if (grid.kind === 'rectangle') {
-    const logX = grid.logX ?? false;
-    const logY = grid.logY ?? false;
-    checkSamples(grid.xs, logX, 'x');
-    checkSamples(grid.ys, logY, 'y');
-    const nx = grid.xs.length;
-    const ny = grid.ys.length;
-    if (winners.length !== nx * ny) throw new UsageError(`Region map has ${winners.length} winners when expected ${nx * ny} (${nx} x ${ny}).`);
-    const ex = sampleEdges(grid.xs, logX);
-    const ey = sampleEdges(grid.ys, logY);
-    mapW = sizePx;
-    mapH = sizePx;
-    const xAxis: Axis = makeAxis(ex[0], ex[nx], logX, left, left + mapW);
-    const yAxis: Axis = makeAxis(ey[0], ey[ny], logY, top + mapH, top, 6);
-    const px = ex.map((v) => axisPx(xAxis, v));
-    const py = ey.map((v) => axisPx(yAxis, v));
-    for (let j = 0; j < ny; j++) {
-      for (let i = 0; i < nx; i++) {
-        const neighbours: MapCell['neighbours'] = [];
-        if (i + 1 < nx) neighbours.push({ cell: j * nx + i + 1, edge: [px[i + 1], py[j], px[i + 1], py[j + 1]] });
-        if (j + 1 < ny) neighbours.push({ cell: (j + 1) * nx + i, edge: [px[i], py[j + 1], px[i + 1], py[j + 1]] });
-        cells.push({ polygon: [px[i], py[j], px[i + 1], py[j], px[i + 1], py[j + 1], px[i], py[j + 1]], neighbours });
-      }
-    }
-    axes = `${xAxisSvg(xAxis, top + mapH, grid.xParameter ?? 's', n)}\n${yAxisSvg(yAxis, left, grid.yParameter ?? 't', n)}`;
-  } else {
-    const m = checkDivisions(grid.divisions);
-    if (winners.length !== m * m) throw new UsageError(`Region map has ${winners.length} winners when expected ${m * m} (${m}^2 triangles).`);
-    const side = sizePx;
-    const rise = (sizePx * Math.sqrt(3)) / 2;
-    const names = grid.shareNames ?? ['a', 'b', 'c'];
-    const point = (i: number, j: number): [number, number] => [left + (side * (i + 0.5 * j)) / m, top + 14 + rise - (rise * j) / m];
-    const list = triangleCells(m);
-    // neighbours: a down triangle D(i,j) shares its three edges with U(i,j), U(i+1,j) and U(i,j+1)
-    const upAt = new Map<string, number>();
-    list.forEach(([i, j, , up], c) => { if (up) upAt.set(`${i},${j}`, c); });
-    list.forEach(([i, j, corners, up]) => {
-      const polygon = corners.flatMap(([a, b]) => point(a, b));
-      const neighbours: MapCell['neighbours'] = [];
-      if (!up) {
-        const edge = (a: [number, number], b: [number, number]): [number, number, number, number] => [...point(...a), ...point(...b)];
-        neighbours.push({ cell: upAt.get(`${i},${j}`) as number, edge: edge([i + 1, j], [i, j + 1]) });
-        neighbours.push({ cell: upAt.get(`${i + 1},${j}`) as number, edge: edge([i + 1, j], [i + 1, j + 1]) });
-        neighbours.push({ cell: upAt.get(`${i},${j + 1}`) as number, edge: edge([i, j + 1], [i + 1, j + 1]) });
-      }
-      cells.push({ polygon, neighbours });
-    });
-    mapW = side;
-    mapH = rise + 14 + 28;
-    axes = triangleFrame(point, m, names, n);
-  }
   for (const w of winners) {
     if (w !== null && !index.has(w)) throw new UsageError(`Winner ${w} names no arrangement when expected one of the arrangement keys.`);
   }
@@ -239,6 +189,82 @@ export function renderRegionMap(options: RegionMapOptions): string {
     head.push(`<text class="title" x="${n(left + mapW / 2)}" y="${n(16 + 17)}" font-family="sans-serif" font-size="15" font-weight="bold" text-anchor="middle" fill="${INK}">${escapeXml(options.title)}</text>`);
   }
   return `${[...head, ...out, axes, ...(withLegend ? legend : []), '</svg>'].join('\n')}\n`;
+}
+
+/** Where the map's cells go on the page: polygons and shared edges, the map's size, and its frame. */
+interface MapLayout {
+  cells: MapCell[];
+  mapW: number;
+  mapH: number;
+  frame:
+    | { kind: 'rectangle'; xAxis: Axis; yAxis: Axis; bottom: number; left: number; xName: string; yName: string }
+    | { kind: 'triangle'; point: (i: number, j: number) => [number, number]; m: number; names: readonly string[] };
+}
+
+// The layout of a rectangle grid: one cell per sample, its edges halfway between samples.
+function rectangleLayout(grid: RectangleGrid, winnerCount: number, sizePx: number, left: number, top: number): MapLayout {
+  const logX = grid.logX ?? false;
+  const logY = grid.logY ?? false;
+  checkSamples(grid.xs, logX, 'x');
+  checkSamples(grid.ys, logY, 'y');
+  const nx = grid.xs.length;
+  const ny = grid.ys.length;
+  if (winnerCount !== nx * ny) throw new UsageError(`Region map has ${winnerCount} winners when expected ${nx * ny} (${nx} x ${ny}).`);
+  const ex = sampleEdges(grid.xs, logX);
+  const ey = sampleEdges(grid.ys, logY);
+  const mapW = sizePx;
+  const mapH = sizePx;
+  const xAxis: Axis = makeAxis(ex[0], ex[nx], logX, left, left + mapW);
+  const yAxis: Axis = makeAxis(ey[0], ey[ny], logY, top + mapH, top, 6);
+  const px = ex.map((v) => axisPx(xAxis, v));
+  const py = ey.map((v) => axisPx(yAxis, v));
+  const cells: MapCell[] = [];
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const neighbours: MapCell['neighbours'] = [];
+      if (i + 1 < nx) neighbours.push({ cell: j * nx + i + 1, edge: [px[i + 1], py[j], px[i + 1], py[j + 1]] });
+      if (j + 1 < ny) neighbours.push({ cell: (j + 1) * nx + i, edge: [px[i], py[j + 1], px[i + 1], py[j + 1]] });
+      cells.push({ polygon: [px[i], py[j], px[i + 1], py[j], px[i + 1], py[j + 1], px[i], py[j + 1]], neighbours });
+    }
+  }
+  return {
+    cells, mapW, mapH,
+    frame: { kind: 'rectangle', xAxis, yAxis, bottom: top + mapH, left, xName: grid.xParameter ?? 's', yName: grid.yParameter ?? 't' },
+  };
+}
+
+// The layout of a triangle of shares: m^2 small triangles in triangleCells' order.
+function triangleLayout(grid: TriangleGrid, winnerCount: number, sizePx: number, left: number, top: number): MapLayout {
+  const m = checkDivisions(grid.divisions);
+  if (winnerCount !== m * m) throw new UsageError(`Region map has ${winnerCount} winners when expected ${m * m} (${m}^2 triangles).`);
+  const side = sizePx;
+  const rise = (sizePx * Math.sqrt(3)) / 2;
+  const names = grid.shareNames ?? ['a', 'b', 'c'];
+  const point = (i: number, j: number): [number, number] => [left + (side * (i + 0.5 * j)) / m, top + 14 + rise - (rise * j) / m];
+  const list = triangleCells(m);
+  // neighbours: a down triangle D(i,j) shares its three edges with U(i,j), U(i+1,j) and U(i,j+1)
+  const upAt = new Map<string, number>();
+  list.forEach(([i, j, , up], c) => { if (up) upAt.set(`${i},${j}`, c); });
+  const cells: MapCell[] = [];
+  list.forEach(([i, j, corners, up]) => {
+    const polygon = corners.flatMap(([a, b]) => point(a, b));
+    const neighbours: MapCell['neighbours'] = [];
+    if (!up) {
+      const edge = (a: [number, number], b: [number, number]): [number, number, number, number] => [...point(...a), ...point(...b)];
+      neighbours.push({ cell: upAt.get(`${i},${j}`) as number, edge: edge([i + 1, j], [i, j + 1]) });
+      neighbours.push({ cell: upAt.get(`${i + 1},${j}`) as number, edge: edge([i + 1, j], [i + 1, j + 1]) });
+      neighbours.push({ cell: upAt.get(`${i},${j + 1}`) as number, edge: edge([i, j + 1], [i + 1, j + 1]) });
+    }
+    cells.push({ polygon, neighbours });
+  });
+  return { cells, mapW: side, mapH: rise + 14 + 28, frame: { kind: 'triangle', point, m, names } };
+}
+
+// The frame of a laid-out map as SVG: axes of a rectangle, the labelled corners of a triangle.
+function frameSvg(layout: MapLayout, n: (v: number) => string): string {
+  const f = layout.frame;
+  if (f.kind === 'rectangle') return `${xAxisSvg(f.xAxis, f.bottom, f.xName, n)}\n${yAxisSvg(f.yAxis, f.left, f.yName, n)}`;
+  return triangleFrame(f.point, f.m, f.names, n);
 }
 
 function pairs(polygon: number[], n: (v: number) => string): string {
