@@ -45,7 +45,7 @@ export interface DescentReport {
 }
 
 // The per-wall records (local copies: under some loaders, tsx, every use of an import is a getter call).
-const { HESSIAN_BLOCK, M_TT, M_XX, M_YY, WALL_STRIDE, W_C, W_G, W_G1, wallHessianInto } = terms;
+const { HESSIAN_BLOCK, M_TT, M_XX, M_YY, WALL_STRIDE, W_C, W_G, W_G1, jumpOf, wallHessianInto } = terms;
 // One wall's Hessian block.
 const BLOCK = new Float64Array(HESSIAN_BLOCK);
 // Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
@@ -370,14 +370,12 @@ function aimOf(target: number, area: number, grow: number): number {
 // alike, so a step of a symmetric drawing is as symmetric as the drawing), per bulge its own; at least
 // DIAGONAL_FLOOR of the largest.
 function shiftScalesInto(problem: ClusterProblem, cache: Float64Array, mu: Float64Array, shift: Float64Array): void {
-  const { junctions, walls, starts, ends, lefts, rights } = problem;
+  const { junctions, walls, starts, ends } = problem;
   const t0 = 2 * junctions;
   shift.fill(0, 0, t0);
   const m = BLOCK;
   for (let k = 0; k < walls; k++) {
-    const l = lefts[k];
-    const r = rights[k];
-    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const d = jumpOf(problem, k, mu);
     wallHessianInto(cache, k, d, m);
     const s = Math.max(Math.abs(m[M_XX]), Math.abs(m[M_YY]));
     shift[2 * starts[k]] += s;

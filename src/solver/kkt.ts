@@ -32,7 +32,7 @@ import * as terms from './wall-terms.ts';
 // getter call).
 const {
   GRADIENT_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T,
-  areaGradientInto, wallHessianInto,
+  areaGradientInto, jumpOf, wallHessianInto,
 } = terms;
 // One wall's Hessian block and area gradient (wall-terms.ts).
 const BLOCK = new Float64Array(HESSIAN_BLOCK);
@@ -132,9 +132,7 @@ export function assembleStepInto(
   const m = BLOCK;
   const q = AREA;
   for (let k = 0; k < walls; k++) {
-    const l = lefts[k];
-    const r = rights[k];
-    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const d = jumpOf(problem, k, mu);
     wallHessianInto(cache, k, d, m);
     areaGradientInto(cache, k, z, 2 * starts[k], 2 * ends[k], q);
     const mxt = m[M_XT];
@@ -355,7 +353,7 @@ export function rigidInto(z: Float64Array, junctions: number, rigid: Float64Arra
 export function stepCurvature(
   problem: ClusterProblem, cache: Float64Array, mu: Float64Array, tau: number, shift: Float64Array, d: Float64Array,
 ): number {
-  const { junctions, walls, starts, ends, lefts, rights } = problem;
+  const { junctions, walls, starts, ends } = problem;
   const t0 = 2 * junctions;
   const m = BLOCK;
   let sum = 0;
@@ -363,9 +361,7 @@ export function stepCurvature(
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    const l = lefts[k];
-    const r = rights[k];
-    const p = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const p = jumpOf(problem, k, mu);
     wallHessianInto(cache, k, p, m);
     const mxx = m[M_XX];
     const mxy = m[M_XY];

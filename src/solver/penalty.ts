@@ -22,7 +22,7 @@ import * as terms from './wall-terms.ts';
 // getter call).
 const {
   F_AX, F_AY, F_BX, F_BY, F_T, GRADIENT_BLOCK, L_T, L_X, L_Y, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, WALL_STRIDE, W_C, W_H1,
-  areaGradientInto, wallGradientInto,
+  areaGradientInto, jumpOf, wallGradientInto,
 } = terms;
 
 // One wall's gradients (wall-terms.ts).
@@ -49,7 +49,7 @@ export function penaltyGradientInto(
   problem: ClusterProblem, z: Float64Array, targets: Float64Array, mult: Float64Array, kappa: number,
   cache: Float64Array, areas: Float64Array, mu: Float64Array, grad: Float64Array, lengthGrad: Float64Array,
 ): number {
-  const { walls, starts, ends, lefts, rights, cells, junctions } = problem;
+  const { walls, starts, ends, cells, junctions } = problem;
   const t0 = 2 * junctions;
   for (let i = 0; i < cells; i++) mu[i] = mult[i] - (kappa * (areas[i] - targets[i])) / targets[i];
   grad.fill(0, 0, t0 + walls);
@@ -58,9 +58,7 @@ export function penaltyGradientInto(
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    const l = lefts[k];
-    const r = rights[k];
-    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const d = jumpOf(problem, k, mu);
     wallGradientInto(cache, k, z, a, b, d, gw);
     const lx = gw[L_X];
     const ly = gw[L_Y];
@@ -90,7 +88,7 @@ export function penaltyGradientInto(
  * error, which the raw gradient of a short wall would hide).
  */
 export function scaledGradientMax(problem: ClusterProblem, cache: Float64Array, mu: Float64Array, grad: Float64Array): number {
-  const { walls, lefts, rights, junctions } = problem;
+  const { walls, junctions } = problem;
   const t0 = 2 * junctions;
   let worst = 0;
   for (let i = 0; i < t0; i++) {
@@ -100,9 +98,7 @@ export function scaledGradientMax(problem: ClusterProblem, cache: Float64Array, 
   for (let k = 0; k < walls; k++) {
     const w = k * WALL_STRIDE;
     const c = cache[w + W_C];
-    const l = lefts[k];
-    const r = rights[k];
-    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
+    const d = jumpOf(problem, k, mu);
     const v = Math.abs(grad[t0 + k]) / (c * c * cache[w + W_H1] * (1 + Math.abs(d)));
     if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
   }

@@ -1,8 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import {
-  ARC_ARGS, ARC_HESSIAN, BULGE_FACTORS, G, G1, G2, H, H1, H2, arcCurvatureInto, arcEndAngleInto, arcLengthInto,
-  arcSegmentAreaInto, arcStartAngleInto, bulgeFactorsInto, bulgeThrough, segmentFactor, wrapAngle,
+  BULGE_FACTORS, G, G1, G2, H, H1, H2, bulgeFactorsInto, bulgeThrough, segmentFactor,
 } from '../../src/arcs/arc.ts';
+import {
+  ARC_ARGS, ARC_HESSIAN, arcCurvatureInto, arcEndAngleInto, arcLengthInto, arcSegmentAreaInto, arcStartAngleInto, wrapAngle,
+} from './reference.ts';
 
 type Primitive = (ax: number, ay: number, bx: number, by: number, t: number, g?: Float64Array, h?: Float64Array) => number;
 
