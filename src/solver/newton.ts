@@ -26,7 +26,7 @@ import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from '
 import { penaltyGradientInto } from './penalty.ts';
 import { type ClusterProblem, problemOf } from './problem.ts';
 import { curvaturePressuresInto } from './pressures.ts';
-import { cellAreasInto, perimeterInto } from './wall-terms.ts';
+import { perimeterInto } from './wall-terms.ts';
 import type { Equilibrium } from './result.ts';
 import { shrinkSmallCellsInto } from './small-cells.ts';
 import { centreLensInto, lensHostOf } from './family.ts';
@@ -144,7 +144,7 @@ function drawStart(
   if (which !== 'insertion') {
     embedClusterInto(map, problem.cells, coords, bulges);
     if (which === 'barycentric') return 'barycentric';
-    cellAreasInto(problem, ws.z, ws.areas);
+    perimeterInto(problem, ws.z, ws.cache, ws.areas);
     let small = false;
     for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] >= SMALL_START * ws.targets[f])) small = true;
     if (!small) return 'barycentric';
@@ -153,7 +153,7 @@ function drawStart(
     // (asked for explicitly, as a second start, it need not be a valid drawing: the descent may still
     // find its way from it)
     if (which === 'insertion') return 'insertion';
-    cellAreasInto(problem, ws.z, ws.areas);
+    perimeterInto(problem, ws.z, ws.cache, ws.areas);
     let valid = ordersHold(problem, ws.z);
     for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] > 0)) valid = false;
     if (valid) return 'insertion';
@@ -166,11 +166,11 @@ function drawStart(
 // Shrink the cells of the drawing in ws.z that are drawn far larger than their targets to their size
 // (small-cells.ts), unless that leaves an invalid drawing (walls out of order, a cell of no area).
 function shrinkSmallCells(problem: ClusterProblem, ws: Workspace): void {
-  cellAreasInto(problem, ws.z, ws.areas);
+  perimeterInto(problem, ws.z, ws.cache, ws.areas);
   const before = ws.trial;
   before.set(ws.z);
   if (!shrinkSmallCellsInto(problem, ws.z, ws.targets, ws.areas)) return;
-  cellAreasInto(problem, ws.z, ws.areas);
+  perimeterInto(problem, ws.z, ws.cache, ws.areas);
   let valid = ordersHold(problem, ws.z);
   for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] > 0)) valid = false;
   if (!valid) ws.z.set(before);
@@ -240,7 +240,7 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
   const first = drawStart(map, problem, ws, 'auto');
   shrinkSmallCells(problem, ws);
   // how far the start's areas are from the targets, and the targets from each other (largest factors)
-  cellAreasInto(problem, ws.z, ws.areas);
+  perimeterInto(problem, ws.z, ws.cache, ws.areas);
   let far = 1;
   let least = Infinity;
   let most = 0;
@@ -371,7 +371,7 @@ export function relaxFrom(
   for (let i = 0; i < t0; i++) ws.z[i] = start.coords[i] / unit;
   for (let k = 0; k < walls; k++) ws.z[t0 + k] = start.bulges[k];
   for (let f = 0; f < cells; f++) ws.z[p0 + f] = start.pressures[f] * unit;
-  cellAreasInto(problem, ws.z, ws.areas);
+  perimeterInto(problem, ws.z, ws.cache, ws.areas);
   let valid = ordersHold(problem, ws.z);
   for (let f = 0; f < cells; f++) if (!(ws.areas[f] > 0) || !Number.isFinite(ws.z[p0 + f])) valid = false;
   for (let i = 0; i < p0; i++) if (!Number.isFinite(ws.z[i]) || (i >= t0 && !(Math.abs(ws.z[i]) < Math.PI))) valid = false;
@@ -416,7 +416,7 @@ function answerOf(
     perimeter += c * FACTORS[G] * unit;
     curvatures[k] = c > 0 ? (2 * Math.sin(z[t0 + k])) / (c * unit) : 0;
   }
-  cellAreasInto(problem, z, achieved);
+  perimeterInto(problem, z, ws.cache, achieved);
   for (let f = 0; f < cells; f++) achieved[f] *= unit * unit;
   const { verdict } = attempt;
   const answer: Equilibrium = {

@@ -22,7 +22,7 @@ export const SMALL_CELL_FACTOR = 1e3;
 /**
  * Shrink, in the drawing z (normalised units), every group of adjacent cells drawn more than
  * SMALL_CELL_FACTOR times their target areas to their targets' size, and move the drawing so that the
- * group of the smallest target sits at the origin. `areas` are the drawn areas (cellAreasInto).
+ * group of the smallest target sits at the origin. `areas` are the drawn areas (perimeterInto).
  * Returns whether anything was moved.
  */
 export function shrinkSmallCellsInto(problem: ClusterProblem, z: Float64Array, targets: Float64Array, areas: Float64Array): boolean {

@@ -100,7 +100,6 @@ const G2 = arc.G2;
 const H = arc.H;
 const H1 = arc.H1;
 const H2 = arc.H2;
-const segment = arc.segmentFactor;
 const FACTORS = new Float64Array(arc.BULGE_FACTORS);
 
 /**
@@ -144,28 +143,6 @@ export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: F
     if (r >= 0) areas[r] -= q;
   }
   return length;
-}
-
-/**
- * The cell areas of state z into areas[0..n), as perimeterInto computes them, without the records.
- */
-export function cellAreasInto(problem: ClusterProblem, z: Float64Array, areas: Float64Array): void {
-  const { walls, starts, ends, lefts, rights, cells, junctions } = problem;
-  areas.fill(0, 0, cells);
-  const t0 = 2 * junctions;
-  for (let k = 0; k < walls; k++) {
-    const a = 2 * starts[k];
-    const b = 2 * ends[k];
-    const ax = z[a];
-    const ay = z[a + 1];
-    const bx = z[b];
-    const by = z[b + 1];
-    const dx = bx - ax;
-    const dy = by - ay;
-    const q = 0.5 * (ax * by - ay * bx) - (dx * dx + dy * dy) * segment(z[t0 + k]);
-    if (lefts[k] >= 0) areas[lefts[k]] += q;
-    if (rights[k] >= 0) areas[rights[k]] -= q;
-  }
 }
 
 /** The pressure jump D = p_l - p_r across wall k for cell pressures p (the outside's is 0). */

@@ -2,6 +2,7 @@
 
 import { ORDER_DIGITS } from '../catalogue/rank.ts';
 import type { SweepCandidate } from './candidates.ts';
+import type { TrackedState } from './track.ts';
 import type { Placed } from './types.ts';
 
 /** Negative when `a` ranks before `b` (perimeters compared at ORDER_DIGITS significant digits). */
@@ -20,4 +21,20 @@ export function comparePlaced(a: Placed, b: Placed, candidates: readonly SweepCa
 export function rankPlaced(placed: Placed[], candidates: readonly SweepCandidate[], limit: number): Placed[] {
   placed.sort((a, b) => comparePlaced(a, b, candidates));
   return placed.slice(0, limit);
+}
+
+/** At each of `count` samples, the `limit` best candidates with a state there (states[c][k]), in ranking order. */
+export function rankSamples(
+  states: readonly (readonly (TrackedState | null)[])[], candidates: readonly SweepCandidate[], count: number, limit: number,
+): Placed[][] {
+  const ranked: Placed[][] = [];
+  for (let k = 0; k < count; k++) {
+    const placed: Placed[] = [];
+    for (const cand of candidates) {
+      const s = states[cand.index][k];
+      if (s !== null) placed.push({ candidate: cand.index, perimeter: s.equilibrium.perimeter });
+    }
+    ranked.push(rankPlaced(placed, candidates, limit));
+  }
+  return ranked;
 }

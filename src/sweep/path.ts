@@ -12,7 +12,7 @@ import { UsageError } from '../errors.ts';
 import { t1Neighbour } from './candidates.ts';
 import type { PathDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
-import { rankPlaced } from './order.ts';
+import { rankSamples } from './order.ts';
 import { type KnownState, type PathContext, probeOptionsOf } from './probe.ts';
 import { prepareSweep } from './prepare.ts';
 import { type TrackedState, trackStep } from './track.ts';
@@ -103,15 +103,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   }
 
   // rank every sample; the competitors are those ranked within competitorCount somewhere
-  const ranked: Placed[][] = [];
-  for (let k = 0; k < count; k++) {
-    const placed: Placed[] = [];
-    for (const cand of candidates) {
-      const s = states[cand.index][k];
-      if (s !== null) placed.push({ candidate: cand.index, perimeter: s.equilibrium.perimeter });
-    }
-    ranked.push(rankPlaced(placed, candidates, competitorCount));
-  }
+  const ranked = rankSamples(states, candidates, count, competitorCount);
   const winners = ranked.map((r) => (r.length > 0 ? r[0].candidate : -1));
   const competitors = competitorOrder(ranked, winners);
 

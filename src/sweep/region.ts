@@ -10,10 +10,10 @@ import { UsageError } from '../errors.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import type { GridDomain, TriangleDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
-import { rankPlaced } from './order.ts';
+import { rankSamples } from './order.ts';
 import { prepareSweep } from './prepare.ts';
 import { type TrackedState, trackStep } from './track.ts';
-import type { Placed, Region, RegionSweep, SweepOptions } from './types.ts';
+import type { Region, RegionSweep, SweepOptions } from './types.ts';
 
 /**
  * The neighbour lists of a domain's samples, in its sample order.
@@ -114,15 +114,7 @@ export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain
     }
   }
 
-  const ranked: Placed[][] = [];
-  for (let k = 0; k < count; k++) {
-    const placed: Placed[] = [];
-    for (const cand of candidates) {
-      const s = states[cand.index][k];
-      if (s !== null) placed.push({ candidate: cand.index, perimeter: s.equilibrium.perimeter });
-    }
-    ranked.push(rankPlaced(placed, candidates, 2));
-  }
+  const ranked = rankSamples(states, candidates, count, 2);
   const winners = ranked.map((r) => (r.length > 0 ? r[0].candidate : null));
   return {
     kind: 'region',

@@ -5,7 +5,7 @@ import { factorStepInto, kktWorkspace, rigidInto, solveStepInto, stepCurvature }
 import { luFactorInto, luSolveInto, symmetricInertia } from '../linalg/reference.ts';
 import { penaltyGradientInto } from '../../src/solver/penalty.ts';
 import { WALL_STRIDE, perimeterInto } from '../../src/solver/wall-terms.ts';
-import { cellAreasInto, jacobianInto, problemOf, residualInto } from './reference.ts';
+import { jacobianInto, problemOf, residualInto } from './reference.ts';
 
 // a few arrangements of 3 to 5 cells, each at its barycentric drawing with made-up pressures: a state
 // far from equilibrium, where every term of the step matters (drawings with a cell below a tenth of the
@@ -22,7 +22,7 @@ function states() {
       z.set(d.coords);
       z.set(d.bulges, 2 * p.junctions);
       const drawn = new Float64Array(n);
-      cellAreasInto(p, z, drawn);
+      perimeterInto(p, z, new Float64Array(p.walls * WALL_STRIDE), drawn);
       if (Math.min(...drawn) < 0.1) continue;
       for (let f = 0; f < n; f++) z[2 * p.junctions + p.walls + f] = 0.8 + 0.3 * f;
       const targets = Float64Array.from({ length: n }, (_, f) => 0.5 + 0.25 * f);

@@ -18,7 +18,6 @@ import {
   Q_BY, Q_T, WALL_STRIDE, W_C, W_H1, areaGradientInto, perimeterInto, wallGradientInto, wallHessianInto,
 } from '../../src/solver/wall-terms.ts';
 
-export { cellAreasInto } from '../../src/solver/wall-terms.ts';
 export { problemOf } from '../../src/solver/problem.ts';
 
 function jump(problem: ClusterProblem, z: Float64Array, k: number): number {
