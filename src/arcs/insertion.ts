@@ -16,6 +16,7 @@
 // faces (the face on the left of a dart at any level is the class of its face in the map).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
+import { facesInto } from '../maps/faces.ts';
 import * as arc from './arc.ts';
 
 // NOTE: local copies of imported functions (under some loaders, tsx, every use of an import is a
@@ -257,7 +258,7 @@ export function drawByInsertionInto(map: CubicMap, targets: Float64Array, coords
 function deleteOne(ws: InsertionWorkspace, junctions: number, k: number): boolean {
   const { tw, alive, face, faceSize, order, key, records } = ws;
   const darts = 3 * junctions;
-  facesInto(tw, alive, junctions, face, faceSize);
+  facesInto(tw, 3 * junctions, face, faceSize, alive);
   // candidate walls (lower darts), by the side count of the smaller cell on either side
   let count = 0;
   for (let e = 0; e < darts; e++) {
@@ -336,29 +337,10 @@ function deleteOne(ws: InsertionWorkspace, junctions: number, k: number): boolea
   return false;
 }
 
-// Faces of the current map: face[e] is the face (numbered by walk) of alive dart e, faceSize its length.
-function facesInto(tw: Int32Array, alive: Uint8Array, junctions: number, face: Int32Array, faceSize: Int32Array): number {
-  const darts = 3 * junctions;
-  face.fill(-1, 0, darts);
-  let f = 0;
-  for (let e0 = 0; e0 < darts; e0++) {
-    if (!alive[(e0 / 3) | 0] || face[e0] !== -1) continue;
-    let e = e0;
-    let size = 0;
-    do {
-      face[e] = f;
-      size++;
-      e = prevDart(tw[e]);
-    } while (e !== e0 && size <= darts);
-    faceSize[f++] = size;
-  }
-  return f;
-}
-
 // Whether no wall of the current map has one face on both sides (for a cubic map: no bridge).
 function bridgeless(ws: InsertionWorkspace, junctions: number): boolean {
   const { tw, alive, face, faceSize } = ws;
-  facesInto(tw, alive, junctions, face, faceSize);
+  facesInto(tw, 3 * junctions, face, faceSize, alive);
   for (let e = 0, m = 3 * junctions; e < m; e++) {
     if (alive[(e / 3) | 0] && face[e] === face[tw[e]]) return false;
   }

@@ -14,9 +14,13 @@
 // faces at its two ends); canonical labellings start only from darts of that class.
 
 import { CubicMap, next, prev, thetaMap } from './cubic-map.ts';
+import * as faces from './faces.ts';
 import { type CanonicalForm, canonicalForm, labellingOrder } from './canonical.ts';
 import { UsageError } from '../errors.ts';
 import { CODE_CELL_LIMIT } from './code.ts';
+
+// NOTE: a local copy (under some loaders, tsx, every use of an import is a getter call).
+const facesInto = faces.facesInto;
 
 /** A map produced by the enumerator, with its automorphism group. */
 export interface EnumeratedMap {
@@ -65,25 +69,6 @@ class ChildWork {
     this.pairCount = new Int32Array((faces + 1) * (faces + 1));
     this.keys = new Float64Array(m);
   }
-}
-
-/** Faces of a twins array into faceOf (face on the left of each dart) and faceSize; returns face count. */
-function facesInto(twins: Int32Array, m: number, faceOf: Int32Array, faceSize: Int32Array): number {
-  faceOf.fill(-1, 0, m);
-  let f = 0;
-  for (let e0 = 0; e0 < m; e0++) {
-    if (faceOf[e0] !== -1) continue;
-    let e = e0;
-    let size = 0;
-    do {
-      faceOf[e] = f;
-      size++;
-      const t = twins[e];
-      e = t % 3 === 0 ? t + 2 : t - 1; // prev(twin(e)), inlined: imported calls are slow under tsx
-    } while (e !== e0);
-    faceSize[f++] = size;
-  }
-  return f;
 }
 
 /** Invariant of the wall of dart e (faces it separates, then faces at its ends), from face sizes. */
@@ -211,7 +196,7 @@ function childrenOf(parent: CubicMap, work: ChildWork): Accepted[] {
         const x = parent.faceDarts[i];
         const y = parent.faceDarts[j];
         insertInto(P, V, x, y, twins);
-        facesInto(twins, m, faceOf, faceSize);
+        facesInto(twins, m, faceOf, faceSize, null);
         // Is the new wall outside the canonical class? Then another parent owns this child.
         const best = smallestDeletableKey(work, newDart);
         if (best < 0) continue;
