@@ -45,9 +45,7 @@ export interface DescentReport {
 }
 
 // The per-wall records (local copies: under some loaders, tsx, every use of an import is a getter call).
-const { HESSIAN_BLOCK, M_TT, M_XX, M_YY, WALL_STRIDE, W_C, W_G, W_G1, jumpOf, wallHessianInto } = terms;
-// One wall's Hessian block.
-const BLOCK = new Float64Array(HESSIAN_BLOCK);
+const { WALL_STRIDE, W_C, W_G, W_G1, W_H, W_H2, W_LTT, W_LXX, W_LYY, jumpOf } = terms;
 // Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
 // cell area 1).
 const KAPPA_FIRST = 10;
@@ -373,14 +371,16 @@ function shiftScalesInto(problem: ClusterProblem, cache: Float64Array, mu: Float
   const { junctions, walls, starts, ends } = problem;
   const t0 = 2 * junctions;
   shift.fill(0, 0, t0);
-  const m = BLOCK;
   for (let k = 0; k < walls; k++) {
     const d = jumpOf(problem, k, mu);
-    wallHessianInto(cache, k, d, m);
-    const s = Math.max(Math.abs(m[M_XX]), Math.abs(m[M_YY]));
+    // the diagonal of the wall's Hessian block (wall-terms.ts) with this pressure jump
+    const w = k * WALL_STRIDE;
+    const c = cache[w + W_C];
+    const h = cache[w + W_H];
+    const s = Math.max(Math.abs(cache[w + W_LXX] + 2 * d * h), Math.abs(cache[w + W_LYY] + 2 * d * h));
     shift[2 * starts[k]] += s;
     shift[2 * ends[k]] += s;
-    shift[t0 + k] = Math.abs(m[M_TT]);
+    shift[t0 + k] = Math.abs(cache[w + W_LTT] + d * c * c * cache[w + W_H2]);
   }
   let most = 0;
   for (let i = 0; i < t0 + walls; i++) if (shift[i] > most) most = shift[i];

@@ -31,12 +31,12 @@ import * as terms from './wall-terms.ts';
 // NOTE: local copies of the kernel's bindings (under some loaders, tsx, every use of an import is a
 // getter call).
 const {
-  GRADIENT_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T,
-  areaGradientInto, jumpOf, wallHessianInto,
+  AREA_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, WALL_STRIDE, W_C,
+  W_H1, areaGradientInto, jumpOf, wallHessianInto,
 } = terms;
 // One wall's Hessian block and area gradient (wall-terms.ts).
 const BLOCK = new Float64Array(HESSIAN_BLOCK);
-const AREA = new Float64Array(GRADIENT_BLOCK);
+const AREA = new Float64Array(AREA_BLOCK);
 
 // A bulge is eliminated when its pivot is at least ELIMINATE times the largest entry of its column.
 const ELIMINATE = 0.05;
@@ -65,6 +65,8 @@ export interface KktWorkspace {
   slots: Int32Array;
   /** Per-wall elimination data, ELIMINATED_STRIDE numbers per wall. */
   eliminated: Float64Array;
+  /** Per-wall Hessian blocks of the last assembly (wall-terms.ts), HESSIAN_BLOCK numbers per wall. */
+  blocks: Float64Array;
   /** Inertia of the last factorisation. */
   inertia: Inertia;
   /** Rigid-motion rows of the last factorisation: 3 without a shift, 0 with one. */
@@ -86,6 +88,7 @@ export function kktWorkspace(problem: ClusterProblem): KktWorkspace {
     scratch: ldltScratch(most),
     slots: new Int32Array(walls),
     eliminated: new Float64Array(walls * ELIMINATED_STRIDE),
+    blocks: new Float64Array(walls * HESSIAN_BLOCK),
     inertia: { negative: 0, zero: 0, positive: 0 },
     rigidRows: 3,
     negativePivots: 0,
@@ -126,37 +129,9 @@ export function assembleStepInto(
 ): number {
   const { junctions, walls, cells, starts, ends, lefts, rights } = problem;
   const t0 = 2 * junctions;
-  const { matrix, rhs, slots, eliminated } = kw;
-  // which bulges stay: those whose pivot is small against their column
-  let kept = 0;
-  const m = BLOCK;
+  const { matrix, rhs, slots, eliminated, blocks } = kw;
+  const kept = blocksInto(problem, cache, mu, tau, shift, lengthGrad, kw);
   const q = AREA;
-  for (let k = 0; k < walls; k++) {
-    const d = jumpOf(problem, k, mu);
-    wallHessianInto(cache, k, d, m);
-    areaGradientInto(cache, k, z, 2 * starts[k], 2 * ends[k], q);
-    const mxt = m[M_XT];
-    const myt = m[M_YT];
-    // -dA_l/dt
-    const qt = -q[Q_T];
-    const pivot = m[M_TT] + tau * shift[t0 + k];
-    const column = Math.max(Math.abs(mxt), Math.abs(myt), Math.abs(qt));
-    if (Math.abs(pivot) >= ELIMINATE * column && pivot !== 0) {
-      slots[k] = -1;
-      const e = k * ELIMINATED_STRIDE;
-      eliminated[e + E_PIVOT] = pivot;
-      eliminated[e + E_RHS] = -lengthGrad[t0 + k];
-      eliminated[e + E_U] = -mxt;
-      eliminated[e + E_U + 1] = -myt;
-      eliminated[e + E_U + 2] = mxt;
-      eliminated[e + E_U + 3] = myt;
-      // -dA_l/dt = -(-c^2 h') for the left cell, +(-c^2 h') for the right one
-      eliminated[e + E_U + 4] = qt;
-      eliminated[e + E_U + 5] = -qt;
-    } else {
-      slots[k] = t0 + kept++;
-    }
-  }
   const p0 = t0 + kept;
   // with a shift, B is positive definite on the translations and needs no rigid rows
   const rigidRows = tau === 0 ? 3 : 0;
@@ -172,10 +147,10 @@ export function assembleStepInto(
     const r = rights[k];
     const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
     // the wall's chord block, with the cross-product terms
-    wallHessianInto(cache, k, d, m);
-    const mxx = m[M_XX];
-    const mxy = m[M_XY];
-    const myy = m[M_YY];
+    const o = k * HESSIAN_BLOCK;
+    const mxx = blocks[o + M_XX];
+    const mxy = blocks[o + M_XY];
+    const myy = blocks[o + M_YY];
     const half = 0.5 * d;
     addLower(matrix, n, a, a, mxx);
     addLower(matrix, n, a + 1, a, mxy);
@@ -188,6 +163,8 @@ export function assembleStepInto(
     addLower(matrix, n, b + 1, a, -mxy - half);
     addLower(matrix, n, b + 1, a + 1, -myy);
     // the wall's area gradient: dQ/da, dQ/db (Q added to the left cell, taken from the right one)
+    // NOTE: taken at the junctions of z with the records' chords; after a refused trial step
+    // (descent.ts) the records hold the trial's chords, not z's
     areaGradientInto(cache, k, z, a, b, q);
     const qax = q[Q_AX];
     const qay = q[Q_AY];
@@ -210,14 +187,14 @@ export function assembleStepInto(
     const slot = slots[k];
     if (slot >= 0) {
       // a kept bulge: its column as it is
-      const mxt = m[M_XT];
-      const myt = m[M_YT];
+      const mxt = blocks[o + M_XT];
+      const myt = blocks[o + M_YT];
       const qt = -q[Q_T];
       addLower(matrix, n, slot, a, -mxt);
       addLower(matrix, n, slot, a + 1, -myt);
       addLower(matrix, n, slot, b, mxt);
       addLower(matrix, n, slot, b + 1, myt);
-      addLower(matrix, n, slot, slot, m[M_TT] + tau * shift[t0 + k]);
+      addLower(matrix, n, slot, slot, blocks[o + M_TT] + tau * shift[t0 + k]);
       if (l >= 0) addLower(matrix, n, p0 + l, slot, qt);
       if (r >= 0) addLower(matrix, n, p0 + r, slot, -qt);
       rhs[slot] = -lengthGrad[t0 + k];
@@ -274,6 +251,47 @@ export function assembleStepInto(
   }
   kw.negativePivots = negativePivots;
   return n;
+}
+
+// The walls' Hessian blocks at pressures mu into kw.blocks, and which bulges stay: those whose pivot
+// is small against their column get a slot, the others their elimination data. Returns how many stay.
+// (Apart from assembleStepInto so that the compiler inlines addLower there.)
+function blocksInto(
+  problem: ClusterProblem, cache: Float64Array, mu: Float64Array, tau: number, shift: Float64Array,
+  lengthGrad: Float64Array, kw: KktWorkspace,
+): number {
+  const { junctions, walls } = problem;
+  const t0 = 2 * junctions;
+  const { slots, eliminated, blocks } = kw;
+  // which bulges stay: those whose pivot is small against their column
+  let kept = 0;
+  for (let k = 0; k < walls; k++) {
+    const o = k * HESSIAN_BLOCK;
+    wallHessianInto(cache, k, jumpOf(problem, k, mu), blocks, o);
+    const mxt = blocks[o + M_XT];
+    const myt = blocks[o + M_YT];
+    // -dA_l/dt = c^2 h'
+    const c = cache[k * WALL_STRIDE + W_C];
+    const qt = c * c * cache[k * WALL_STRIDE + W_H1];
+    const pivot = blocks[o + M_TT] + tau * shift[t0 + k];
+    const column = Math.max(Math.abs(mxt), Math.abs(myt), Math.abs(qt));
+    if (Math.abs(pivot) >= ELIMINATE * column && pivot !== 0) {
+      slots[k] = -1;
+      const e = k * ELIMINATED_STRIDE;
+      eliminated[e + E_PIVOT] = pivot;
+      eliminated[e + E_RHS] = -lengthGrad[t0 + k];
+      eliminated[e + E_U] = -mxt;
+      eliminated[e + E_U + 1] = -myt;
+      eliminated[e + E_U + 2] = mxt;
+      eliminated[e + E_U + 3] = myt;
+      // -dA_l/dt = -(-c^2 h') for the left cell, +(-c^2 h') for the right one
+      eliminated[e + E_U + 4] = qt;
+      eliminated[e + E_U + 5] = -qt;
+    } else {
+      slots[k] = t0 + kept++;
+    }
+  }
+  return kept;
 }
 
 // Add v at (i, j) of a symmetric n x n matrix kept in its lower triangle.

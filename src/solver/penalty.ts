@@ -20,13 +20,7 @@ import * as terms from './wall-terms.ts';
 
 // NOTE: local copies of the kernel's bindings (under some loaders, tsx, every use of an import is a
 // getter call).
-const {
-  F_AX, F_AY, F_BX, F_BY, F_T, GRADIENT_BLOCK, L_T, L_X, L_Y, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, WALL_STRIDE, W_C, W_H1,
-  areaGradientInto, jumpOf, wallGradientInto,
-} = terms;
-
-// One wall's gradients (wall-terms.ts).
-const GRADIENT = new Float64Array(GRADIENT_BLOCK);
+const { Q_AX, Q_AY, Q_BX, Q_BY, Q_T, WALL_STRIDE, W_C, W_H1, W_LT, W_LX, W_LY, W_Q, jumpOf } = terms;
 
 /** Phi(y; m) from the perimeter and the cell areas of perimeterInto. */
 export function meritOf(
@@ -54,24 +48,27 @@ export function penaltyGradientInto(
   for (let i = 0; i < cells; i++) mu[i] = mult[i] - (kappa * (areas[i] - targets[i])) / targets[i];
   grad.fill(0, 0, t0 + walls);
   lengthGrad.fill(0, 0, t0 + walls);
-  const gw = GRADIENT;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
     const d = jumpOf(problem, k, mu);
-    wallGradientInto(cache, k, z, a, b, d, gw);
-    const lx = gw[L_X];
-    const ly = gw[L_Y];
+    // grad (L - D Q) of the wall, from its record
+    const w = k * WALL_STRIDE;
+    const q = w + W_Q;
+    const c = cache[w + W_C];
+    const lx = cache[w + W_LX];
+    const ly = cache[w + W_LY];
+    const lt = cache[w + W_LT];
     lengthGrad[a] -= lx;
     lengthGrad[a + 1] -= ly;
     lengthGrad[b] += lx;
     lengthGrad[b + 1] += ly;
-    lengthGrad[t0 + k] = gw[L_T];
-    grad[a] += gw[F_AX];
-    grad[a + 1] += gw[F_AY];
-    grad[b] += gw[F_BX];
-    grad[b + 1] += gw[F_BY];
-    grad[t0 + k] = gw[F_T];
+    lengthGrad[t0 + k] = lt;
+    grad[a] += -lx - d * cache[q + Q_AX];
+    grad[a + 1] += -ly - d * cache[q + Q_AY];
+    grad[b] += lx - d * cache[q + Q_BX];
+    grad[b + 1] += ly - d * cache[q + Q_BY];
+    grad[t0 + k] = lt + d * c * c * cache[w + W_H1];
   }
   let worst = 0;
   for (let i = 0, m = t0 + walls; i < m; i++) {
@@ -119,16 +116,15 @@ export function fitPressuresInto(
   const t0 = 2 * junctions;
   const dim = t0 + walls;
   cellGrad.fill(0, 0, cells * dim);
-  const q = GRADIENT;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    areaGradientInto(cache, k, z, a, b, q);
-    const qax = q[Q_AX];
-    const qay = q[Q_AY];
-    const qbx = q[Q_BX];
-    const qby = q[Q_BY];
-    const qt = q[Q_T];
+    const q = k * WALL_STRIDE + W_Q;
+    const qax = cache[q + Q_AX];
+    const qay = cache[q + Q_AY];
+    const qbx = cache[q + Q_BX];
+    const qby = cache[q + Q_BY];
+    const qt = cache[q + Q_T];
     for (let side = 0; side < 2; side++) {
       const f = side === 0 ? lefts[k] : rights[k];
       if (f < 0) continue;

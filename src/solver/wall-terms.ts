@@ -7,10 +7,12 @@
 //                                                taken from the one on its right)
 // With D = p_l - p_r the pressure jump across the wall, the wall's part of the Lagrangian
 // F = sum_k L_k - sum_f p_f (A_f - T_f) is phi = L - D Q, so every pass of the relaxer combines the
-// same two pieces with its own pressure jump: the merit's gradient (penalty.ts), the step's matrix and
-// its curvature (kkt.ts), the shift scales (descent.ts), and the reference residual and Jacobian of the
-// tests. wallTermsInto fills a record per wall (layout below, declared here only) once per iterate;
-// the other functions read one record and take the caller's D.
+// same two pieces with its own pressure jump: the merit's gradient and the pressure fit (penalty.ts),
+// the step's matrix and its curvature (kkt.ts), the shift scales (descent.ts), and the reference
+// residual and Jacobian of the tests. perimeterInto fills a record per wall (layout below, declared
+// here only) once per iterate: the chord, g and h with their derivatives in t, and the length's
+// gradient and Hessian and the area's gradient, kept apart; wallHessianInto combines a record with the
+// caller's D.
 //
 // Hessian of phi in the wall's chord and bulge (the cross-product term of Q couples a and b apart):
 //   d2/dd2  = g (I - u u^T) / c + 2 D h I          u = d / c
@@ -19,9 +21,9 @@
 // and the area gradient dQ/da = (b_y/2 + 2 h d_x, -b_x/2 + 2 h d_y), dQ/db = (-a_y/2 - 2 h d_x,
 // a_x/2 - 2 h d_y), dQ/dt = -c^2 h'.
 //
-// NOTE: a wall's weight (a tension s other than 1, s L in the energy) belongs in the length factors
-// G, G1, G2 of the record, which wallTermsInto writes: every length term any pass uses is read from
-// them, so that is the one factor in one place.
+// NOTE: a wall's weight (a tension s other than 1, s L in the energy) is one factor on the length
+// terms of the record (W_G .. W_G2, W_LX .. W_LTT), which perimeterInto writes: every length term any
+// pass uses is read from them, so that is the one place it enters.
 
 import * as arc from '../arcs/arc.ts';
 import type { ClusterProblem } from './problem.ts';
@@ -44,8 +46,41 @@ export const W_H = 6;
 export const W_H1 = 7;
 /** Offset of h''(t). */
 export const W_H2 = 8;
+/** Offset of the length's gradient dL/db_x = -dL/da_x = g d_x / c. */
+export const W_LX = 9;
+/** Offset of dL/db_y. */
+export const W_LY = 10;
+/** Offset of dL/dt = c g'. */
+export const W_LT = 11;
+/** Offset of the length's Hessian in the chord, d2L/dd_x^2 = g (1 - u_x^2) / c. */
+export const W_LXX = 12;
+/** Offset of d2L/dd_x dd_y = -g u_x u_y / c. */
+export const W_LXY = 13;
+/** Offset of d2L/dd_y^2. */
+export const W_LYY = 14;
+/** Offset of d2L/dd_x dt = g' u_x. */
+export const W_LXT = 15;
+/** Offset of d2L/dd_y dt. */
+export const W_LYT = 16;
+/** Offset of d2L/dt^2 = c g''. */
+export const W_LTT = 17;
+/** Offset of the area's gradient (an area block, offsets Q_AX .. Q_T, as areaGradientInto writes it). */
+export const W_Q = 18;
 /** Length of one wall's record. */
-export const WALL_STRIDE = 9;
+export const WALL_STRIDE = 23;
+
+/** Offset of dQ/da_x = b_y/2 + 2 h d_x in an area block. */
+export const Q_AX = 0;
+/** Offset of dQ/da_y = -b_x/2 + 2 h d_y. */
+export const Q_AY = 1;
+/** Offset of dQ/db_x = -a_y/2 - 2 h d_x. */
+export const Q_BX = 2;
+/** Offset of dQ/db_y = a_x/2 - 2 h d_y. */
+export const Q_BY = 3;
+/** Offset of dQ/dt = -c^2 h'. */
+export const Q_T = 4;
+/** Length of an area block. */
+export const AREA_BLOCK = 5;
 
 /** Offsets in a Hessian block of wallHessianInto: the chord block, the mixed terms, the bulge term. */
 export const M_XX = 0;
@@ -61,35 +96,6 @@ export const M_YT = 4;
 export const M_TT = 5;
 /** Length of a Hessian block. */
 export const HESSIAN_BLOCK = 6;
-
-/** Offsets in an area-gradient block of areaGradientInto: dQ/da, dQ/db, dQ/dt. */
-export const Q_AX = 0;
-/** Offset of dQ/da_y. */
-export const Q_AY = 1;
-/** Offset of dQ/db_x. */
-export const Q_BX = 2;
-/** Offset of dQ/db_y. */
-export const Q_BY = 3;
-/** Offset of dQ/dt. */
-export const Q_T = 4;
-/** Offsets in a gradient block of wallGradientInto, after the area gradient: dL/db (= -dL/da), dL/dt. */
-export const L_X = 5;
-/** Offset of dL/db_y. */
-export const L_Y = 6;
-/** Offset of dL/dt. */
-export const L_T = 7;
-/** Offsets of dphi/da, dphi/db, dphi/dt in a gradient block. */
-export const F_AX = 8;
-/** Offset of dphi/da_y. */
-export const F_AY = 9;
-/** Offset of dphi/db_x. */
-export const F_BX = 10;
-/** Offset of dphi/db_y. */
-export const F_BY = 11;
-/** Offset of dphi/dt. */
-export const F_T = 12;
-/** Length of a gradient block (an area-gradient block is its first 5 numbers). */
-export const GRADIENT_BLOCK = 13;
 
 // NOTE: an imported binding is read through a getter at every use under some loaders (tsx); the hot
 // per-wall code reads these local copies instead.
@@ -125,18 +131,35 @@ export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: F
     const c2 = dx * dx + dy * dy;
     const c = Math.sqrt(c2);
     factorsInto(z[t0 + k], f);
+    const g = f[G];
+    const g1 = f[G1];
+    const h = f[H];
     const w = k * WALL_STRIDE;
     cache[w + W_DX] = dx;
     cache[w + W_DY] = dy;
     cache[w + W_C] = c;
-    cache[w + W_G] = f[G];
-    cache[w + W_G1] = f[G1];
+    cache[w + W_G] = g;
+    cache[w + W_G1] = g1;
     cache[w + W_G2] = f[G2];
-    cache[w + W_H] = f[H];
+    cache[w + W_H] = h;
     cache[w + W_H1] = f[H1];
     cache[w + W_H2] = f[H2];
-    length += c * f[G];
-    const q = 0.5 * (ax * by - ay * bx) - c2 * f[H];
+    // the length's derivatives (Is the chord zero? Its direction is undefined: taken as zero.)
+    const ux = c > 0 ? dx / c : 0;
+    const uy = c > 0 ? dy / c : 0;
+    const gc = c > 0 ? g / c : 0;
+    cache[w + W_LX] = gc * dx;
+    cache[w + W_LY] = gc * dy;
+    cache[w + W_LT] = c * g1;
+    cache[w + W_LXX] = gc * (1 - ux * ux);
+    cache[w + W_LXY] = -gc * ux * uy;
+    cache[w + W_LYY] = gc * (1 - uy * uy);
+    cache[w + W_LXT] = g1 * ux;
+    cache[w + W_LYT] = g1 * uy;
+    cache[w + W_LTT] = c * f[G2];
+    areaGradientInto(cache, k, z, a, b, cache, w + W_Q);
+    length += c * g;
+    const q = 0.5 * (ax * by - ay * bx) - c2 * h;
     const l = lefts[k];
     const r = rights[k];
     if (l >= 0) areas[l] += q;
@@ -155,68 +178,37 @@ export function jumpOf(problem: ClusterProblem, k: number, p: Float64Array): num
 /**
  * The Hessian of phi = L - D Q of wall k in its chord d and bulge t (the block of the file header, the
  * cross-product term of Q left to the caller: -D/2 at (a_x, b_y), +D/2 at (a_y, b_x)) from its record,
- * into out (HESSIAN_BLOCK numbers at M_XX .. M_TT). A zero chord has no direction: its length terms
- * are taken as zero.
+ * into out (HESSIAN_BLOCK numbers at o + M_XX .. o + M_TT).
  */
-export function wallHessianInto(cache: Float64Array, k: number, jump: number, out: Float64Array): void {
+export function wallHessianInto(cache: Float64Array, k: number, jump: number, out: Float64Array, o = 0): void {
   const w = k * WALL_STRIDE;
-  const dx = cache[w + W_DX];
-  const dy = cache[w + W_DY];
   const c = cache[w + W_C];
-  const g1 = cache[w + W_G1];
   const h = cache[w + W_H];
   const h1 = cache[w + W_H1];
-  const ux = c > 0 ? dx / c : 0;
-  const uy = c > 0 ? dy / c : 0;
-  const gc = c > 0 ? cache[w + W_G] / c : 0;
-  out[M_XX] = gc * (1 - ux * ux) + 2 * jump * h;
-  out[M_XY] = -gc * ux * uy;
-  out[M_YY] = gc * (1 - uy * uy) + 2 * jump * h;
-  out[M_XT] = g1 * ux + 2 * jump * h1 * dx;
-  out[M_YT] = g1 * uy + 2 * jump * h1 * dy;
-  out[M_TT] = c * cache[w + W_G2] + jump * c * c * cache[w + W_H2];
+  out[o + M_XX] = cache[w + W_LXX] + 2 * jump * h;
+  out[o + M_XY] = cache[w + W_LXY];
+  out[o + M_YY] = cache[w + W_LYY] + 2 * jump * h;
+  out[o + M_XT] = cache[w + W_LXT] + 2 * jump * h1 * cache[w + W_DX];
+  out[o + M_YT] = cache[w + W_LYT] + 2 * jump * h1 * cache[w + W_DY];
+  out[o + M_TT] = cache[w + W_LTT] + jump * c * c * cache[w + W_H2];
 }
 
 /**
- * The area gradient of wall k (dQ/da, dQ/db, dQ/dt of the file header) at z from its record, into
- * out[Q_AX .. Q_T]; a and b are the offsets 2 starts[k], 2 ends[k] of its junctions in z.
+ * The area gradient of wall k (dQ/da, dQ/db, dQ/dt of the file header) at the junction positions of z
+ * with the chord and h of its record, into out[o + Q_AX .. o + Q_T]; a and b are the offsets
+ * 2 starts[k], 2 ends[k] of its junctions in z. perimeterInto stores it in the record (at W_Q).
  */
-export function areaGradientInto(cache: Float64Array, k: number, z: Float64Array, a: number, b: number, out: Float64Array): void {
+export function areaGradientInto(
+  cache: Float64Array, k: number, z: Float64Array, a: number, b: number, out: Float64Array, o = 0,
+): void {
   const w = k * WALL_STRIDE;
   const dx = cache[w + W_DX];
   const dy = cache[w + W_DY];
   const c = cache[w + W_C];
   const h = cache[w + W_H];
-  out[Q_AX] = 0.5 * z[b + 1] + 2 * h * dx;
-  out[Q_AY] = -0.5 * z[b] + 2 * h * dy;
-  out[Q_BX] = -0.5 * z[a + 1] - 2 * h * dx;
-  out[Q_BY] = 0.5 * z[a] - 2 * h * dy;
-  out[Q_T] = -c * c * cache[w + W_H1];
-}
-
-/**
- * The gradients of wall k at z from its record, into out (GRADIENT_BLOCK numbers): its area gradient
- * (as areaGradientInto), its length gradient (dL/db = -dL/da at L_X, L_Y, dL/dt at L_T) and the gradient
- * of phi = L - D Q (F_AX .. F_T). A zero chord has no direction: its length gradient is taken as zero.
- */
-export function wallGradientInto(
-  cache: Float64Array, k: number, z: Float64Array, a: number, b: number, jump: number, out: Float64Array,
-): void {
-  areaGradientInto(cache, k, z, a, b, out);
-  const w = k * WALL_STRIDE;
-  const dx = cache[w + W_DX];
-  const dy = cache[w + W_DY];
-  const c = cache[w + W_C];
-  const gc = c > 0 ? cache[w + W_G] / c : 0;
-  const lx = gc * dx;
-  const ly = gc * dy;
-  const lt = c * cache[w + W_G1];
-  out[L_X] = lx;
-  out[L_Y] = ly;
-  out[L_T] = lt;
-  out[F_AX] = -lx - jump * out[Q_AX];
-  out[F_AY] = -ly - jump * out[Q_AY];
-  out[F_BX] = lx - jump * out[Q_BX];
-  out[F_BY] = ly - jump * out[Q_BY];
-  out[F_T] = lt + jump * c * c * cache[w + W_H1];
+  out[o + Q_AX] = 0.5 * z[b + 1] + 2 * h * dx;
+  out[o + Q_AY] = -0.5 * z[b] + 2 * h * dy;
+  out[o + Q_BX] = -0.5 * z[a + 1] - 2 * h * dx;
+  out[o + Q_BY] = 0.5 * z[a] - 2 * h * dy;
+  out[o + Q_T] = -c * c * cache[w + W_H1];
 }

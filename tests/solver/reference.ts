@@ -14,8 +14,8 @@
 import { rigidInto } from '../../src/solver/kkt.ts';
 import type { ClusterProblem } from '../../src/solver/problem.ts';
 import {
-  F_AX, F_AY, F_BX, F_BY, F_T, GRADIENT_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX,
-  Q_BY, Q_T, WALL_STRIDE, W_C, W_H1, areaGradientInto, perimeterInto, wallGradientInto, wallHessianInto,
+  AREA_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, WALL_STRIDE, W_C, W_H1,
+  W_LT, W_LX, W_LY, W_Q, areaGradientInto, perimeterInto, wallHessianInto,
 } from '../../src/solver/wall-terms.ts';
 
 export { problemOf } from '../../src/solver/problem.ts';
@@ -40,22 +40,24 @@ export function residualInto(problem: ClusterProblem, z: Float64Array, targets: 
   const cache = new Float64Array(walls * WALL_STRIDE);
   const areas = new Float64Array(cells);
   perimeterInto(problem, z, cache, areas);
-  const g = new Float64Array(GRADIENT_BLOCK);
   out.fill(0, 0, size);
   let worst = 0;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
     const d = jump(problem, z, k);
-    wallGradientInto(cache, k, z, a, b, d, g);
-    out[a] += g[F_AX];
-    out[a + 1] += g[F_AY];
-    out[b] += g[F_BX];
-    out[b + 1] += g[F_BY];
-    out[t0 + k] = g[F_T];
+    // grad phi = grad L - D grad Q, from the wall's record
+    const w = k * WALL_STRIDE;
+    const q = w + W_Q;
+    out[a] += -cache[w + W_LX] - d * cache[q + Q_AX];
+    out[a + 1] += -cache[w + W_LY] - d * cache[q + Q_AY];
+    out[b] += cache[w + W_LX] - d * cache[q + Q_BX];
+    out[b + 1] += cache[w + W_LY] - d * cache[q + Q_BY];
+    const rt = cache[w + W_LT] - d * cache[q + Q_T];
+    out[t0 + k] = rt;
     // dphi/dt = c^2 h' (kappa - (p_r - p_l)): its scaled form is the relative Laplace-Young error
-    const c = cache[k * WALL_STRIDE + W_C];
-    const ly = Math.abs(g[F_T]) / (c * c * cache[k * WALL_STRIDE + W_H1] * (1 + Math.abs(d)));
+    const c = cache[w + W_C];
+    const ly = Math.abs(rt) / (c * c * cache[w + W_H1] * (1 + Math.abs(d)));
     if (!(ly <= worst)) worst = Number.isNaN(ly) ? Infinity : ly;
   }
   for (let f = 0; f < cells; f++) out[p0 + f] = targets[f] - areas[f];
@@ -83,7 +85,7 @@ export function jacobianInto(problem: ClusterProblem, z: Float64Array, jac: Floa
   const cache = new Float64Array(walls * WALL_STRIDE);
   perimeterInto(problem, z, cache, new Float64Array(cells));
   const h = new Float64Array(HESSIAN_BLOCK);
-  const q = new Float64Array(GRADIENT_BLOCK);
+  const q = new Float64Array(AREA_BLOCK);
   const m = new Float64Array(25);
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];

@@ -2,8 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { problemOf } from '../../src/solver/problem.ts';
 import {
-  F_AX, F_AY, F_BX, F_BY, F_T, GRADIENT_BLOCK, HESSIAN_BLOCK, L_T, L_X, L_Y, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX,
-  Q_AY, Q_BX, Q_BY, Q_T, WALL_STRIDE, areaGradientInto, perimeterInto, wallGradientInto, wallHessianInto,
+  AREA_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, W_LT, W_LX, W_LY, W_Q,
+  WALL_STRIDE, areaGradientInto, perimeterInto, wallHessianInto,
 } from '../../src/solver/wall-terms.ts';
 import { ARC_ARGS, ARC_HESSIAN, arcLengthInto, arcSegmentAreaInto } from '../arcs/reference.ts';
 
@@ -21,7 +21,7 @@ function random(): number {
 const theta = problemOf([...enumerateClusters(2)][0].map);
 
 describe('wall-terms', () => {
-  it('wallGradientInto and wallHessianInto give the derivatives of phi = L - D Q of the arc primitives', () => {
+  it('the wall records and wallHessianInto give the derivatives of L, Q and phi = L - D Q of the arc primitives', () => {
     // reference: L and the segment area S of tests/arcs/reference.ts, with their gradients and Hessians
     // in (ax, ay, bx, by, t) (checked there against central differences); Q = (a x b)/2 - S
     const p = theta;
@@ -35,8 +35,7 @@ describe('wall-terms', () => {
     const hL = new Float64Array(ARC_HESSIAN);
     const gS = new Float64Array(ARC_ARGS);
     const hS = new Float64Array(ARC_HESSIAN);
-    const g = new Float64Array(GRADIENT_BLOCK);
-    const q = new Float64Array(GRADIENT_BLOCK);
+    const q = new Float64Array(AREA_BLOCK);
     const m = new Float64Array(HESSIAN_BLOCK);
     for (let trial = 0; trial < 200; trial++) {
       for (let i = 0; i < p.size; i++) z[i] = 2 * random() - 1;
@@ -47,7 +46,6 @@ describe('wall-terms', () => {
       const length = arcLengthInto(ax, ay, bx, by, t, gL, hL);
       arcSegmentAreaInto(ax, ay, bx, by, t, gS, hS);
       perimeterInto(p, z, cache, areas);
-      wallGradientInto(cache, 0, z, a, b, jump, g);
       areaGradientInto(cache, 0, z, a, b, q);
       wallHessianInto(cache, 0, jump, m);
       const close = (x: number, y: number): void => expect(Math.abs(x - y)).toBeLessThan(1e-12 * (1 + Math.abs(y)));
@@ -55,11 +53,10 @@ describe('wall-terms', () => {
       const gX = [0.5 * by, -0.5 * bx, -0.5 * ay, 0.5 * ax, 0];
       const gQ = gX.map((x, i) => x - gS[i]);
       [Q_AX, Q_AY, Q_BX, Q_BY, Q_T].forEach((o, i) => close(q[o], gQ[i]));
-      [Q_AX, Q_AY, Q_BX, Q_BY, Q_T].forEach((o, i) => close(g[o], gQ[i]));
-      close(g[L_X], gL[2]);
-      close(g[L_Y], gL[3]);
-      close(g[L_T], gL[4]);
-      [F_AX, F_AY, F_BX, F_BY, F_T].forEach((o, i) => close(g[o], gL[i] - jump * gQ[i]));
+      [Q_AX, Q_AY, Q_BX, Q_BY, Q_T].forEach((o, i) => close(cache[W_Q + o], gQ[i]));
+      close(cache[W_LX], gL[2]);
+      close(cache[W_LY], gL[3]);
+      close(cache[W_LT], gL[4]);
       // the Hessian of phi less its cross-product term -D d2(a x b)/2 (left to the caller): H_L + D H_S
       const block = [
         [m[M_XX], m[M_XY], -m[M_XX], -m[M_XY], -m[M_XT]],
