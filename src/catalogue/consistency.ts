@@ -6,7 +6,7 @@
 // 1e308, one entry's code swapped for another's, counts that contradict the entries. Each is refused
 // here with one line naming the file, the entry and what was expected, before anything is drawn.
 
-import { BULGE_FACTORS, G, G1, H, H1, arcLengthInto, bulgeFactorsInto } from '../arcs/arc.ts';
+import { BULGE_FACTORS, G, G1, H, H1, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Cluster, cellPermutations, clusterFromCode } from '../maps/cluster.ts';
 import { rootedMapCount } from '../maps/count.ts';
 import { summarizeCluster } from '../maps/describe.ts';
@@ -363,7 +363,8 @@ function drawnPerimeter(cluster: Cluster, areas: Float64Array, coords: Float64Ar
     if (e > twins[e]) continue;
     const a = (e / 3) | 0;
     const b = (twins[e] / 3) | 0;
-    sum += arcLengthInto(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k++]);
+    bulgeFactorsInto(bulges[k++], FACTORS);
+    sum += Math.hypot(coords[2 * b] - coords[2 * a], coords[2 * b + 1] - coords[2 * a + 1]) * FACTORS[G];
   }
   return sum;
 }
@@ -372,7 +373,7 @@ function drawnPerimeter(cluster: Cluster, areas: Float64Array, coords: Float64Ar
  * First-order bounds of how much writing a geometry to WRITE_DIGITS significant digits can move what
  * the reader re-checks, from the geometry as written. Rounding moves junction v by at most
  * d_v = sqrt(2) r max(|x_v|, |y_v|) and a bulge t by r |t| (r = WRITE_ROUNDING). For a wall of chord c
- * from a to b (design.md section 4, L = c g(t), S = c^2 h(t), curvature 2 sin t / c):
+ * from a to b (arcs/arc.ts: L = c g(t), S = c^2 h(t), curvature 2 sin t / c):
  * - the chord turns by at most (d_a + d_b) / c, so each end's tangent by (d_a + d_b) / c + r |t|;
  *   a junction's tangent sum moves by at most the sum over its three walls;
  * - the length moves by g (d_a + d_b) + c |g'| r |t|;
