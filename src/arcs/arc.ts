@@ -112,6 +112,20 @@ export function bulgeFactorsInto(t: number, out: Float64Array): void {
 }
 
 /**
+ * The length factor g(t) = t / sin t: a wall's length over its chord, L = c g(t); bulgeFactorsInto's G
+ * alone, to the last bit (g(0) = 1).
+ */
+export function lengthFactor(t: number): number {
+  return Math.abs(t) < SERIES_LIMIT ? 1 / horner(SINC, t * t) : t / Math.sin(t);
+}
+
+/** Length L = c g(t) of the arc from a to b with bulge t (0 for a zero chord). */
+export function arcLength(ax: number, ay: number, bx: number, by: number, t: number): number {
+  const c = Math.hypot(bx - ax, by - ay);
+  return c === 0 ? 0 : c * lengthFactor(t);
+}
+
+/**
  * The segment factor h(t) = (t - sin t cos t) / (4 sin^2 t): a wall's signed segment area over its chord
  * squared, S = c^2 h(t); bulgeFactorsInto's H alone, to the last bit. Odd and increasing on (-pi, pi),
  * h(t) = t/6 + ... near 0 (series below |t| = 1, as there).

@@ -6,7 +6,7 @@
 // 1e308, one entry's code swapped for another's, counts that contradict the entries. Each is refused
 // here with one line naming the file, the entry and what was expected, before anything is drawn.
 
-import { BULGE_FACTORS, G, G1, H, H1, bulgeFactorsInto } from '../arcs/arc.ts';
+import { BULGE_FACTORS, G, G1, H, H1, arcLength, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Cluster, cellPermutations, clusterFromCode } from '../maps/cluster.ts';
 import { rootedMapCount } from '../maps/count.ts';
 import { summarizeCluster } from '../maps/describe.ts';
@@ -363,8 +363,7 @@ function drawnPerimeter(cluster: Cluster, areas: Float64Array, coords: Float64Ar
     if (e > twins[e]) continue;
     const a = (e / 3) | 0;
     const b = (twins[e] / 3) | 0;
-    bulgeFactorsInto(bulges[k++], FACTORS);
-    sum += Math.hypot(coords[2 * b] - coords[2 * a], coords[2 * b + 1] - coords[2 * a + 1]) * FACTORS[G];
+    sum += arcLength(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k++]);
   }
   return sum;
 }

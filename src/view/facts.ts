@@ -5,7 +5,7 @@
 import { clusterFromCode, type Cluster } from '../maps/cluster.ts';
 import { junctionOf } from '../maps/cubic-map.ts';
 import { t1Swap } from '../maps/t1.ts';
-import { arcLengthInto } from '../arcs/arc.ts';
+import { arcLength } from '../arcs/arc.ts';
 import { lowerDartOfWall } from '../catalogue/evaluate.ts';
 import type { CatalogueEntry } from '../catalogue/types.ts';
 import type { EntryFacts } from './query.ts';
@@ -26,7 +26,7 @@ export function shortestWallOf(cluster: Cluster, coords: readonly number[], bulg
     if (e > twins[e]) continue;
     const a = junctionOf(e);
     const b = junctionOf(twins[e]);
-    const length = arcLengthInto(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k]);
+    const length = arcLength(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k]);
     if (length < bestLength) {
       bestLength = length;
       best = k;

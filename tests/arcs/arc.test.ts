@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import {
-  BULGE_FACTORS, G, G1, G2, H, H1, H2, bulgeFactorsInto, bulgeThrough, segmentFactor,
+  BULGE_FACTORS, G, G1, G2, H, H1, H2, arcLength, bulgeFactorsInto, bulgeThrough, segmentFactor,
 } from '../../src/arcs/arc.ts';
 import {
   ARC_ARGS, ARC_HESSIAN, arcCurvatureInto, arcEndAngleInto, arcLengthInto, arcSegmentAreaInto, arcStartAngleInto, wrapAngle,
@@ -120,5 +120,17 @@ describe('segmentFactor', () => {
     expect(segmentFactor(0)).toBe(0);
     // near 0: S ~ (2/3) c h with sagitta h ~ c t / 4, the parabolic segment (Archimedes' quadrature of the parabola)
     expect(segmentFactor(1e-7)).toBeCloseTo((2 / 3) * (1e-7 / 4), 20);
+  });
+});
+
+describe('arcLength', () => {
+  it('arcLength is c t / sin t: a semicircle pi c / 2, a straight wall its chord, and the length of arcLengthInto', () => {
+    // reference: the arc of a circle (school geometry, no source) and tests/arcs/reference.ts
+    expect(arcLength(0, 0, 2, 0, Math.PI / 2)).toBeCloseTo(Math.PI, 14);
+    expect(arcLength(0, 0, 3, 4, 0)).toBe(5);
+    expect(arcLength(1, 1, 1, 1, 0.5)).toBe(0);
+    for (const t of [-2.9, -1, -0.3, 1e-9, 0.999, 1.001, 2.5]) {
+      expect(arcLength(0.3, -0.2, 1.1, 0.7, t)).toBe(arcLengthInto(0.3, -0.2, 1.1, 0.7, t));
+    }
   });
 });

@@ -4,7 +4,7 @@ import { readFileSync } from 'node:fs';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readCatalogue } from '../../src/catalogue/format.ts';
-import { arcLengthInto } from '../../src/arcs/arc.ts';
+import { arcLength } from '../../src/arcs/arc.ts';
 import { lowerDartOfWall } from '../../src/catalogue/evaluate.ts';
 import { clusterFromCode } from '../../src/maps/cluster.ts';
 import { junctionOf } from '../../src/maps/cubic-map.ts';
@@ -104,7 +104,7 @@ describe('entryFacts', () => {
       const d = lowerDartOfWall(map.twins, k);
       const [a, b] = [junctionOf(d), junctionOf(map.twins[d])];
       const { coords, bulges } = e.geometry;
-      const length = arcLengthInto(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k]);
+      const length = arcLength(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k]);
       expect(Math.abs(length - e.certificate.minWallLength)).toBeLessThan(1e-9 * e.certificate.minWallLength);
       checked++;
     }
