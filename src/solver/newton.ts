@@ -23,7 +23,6 @@ import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
 import { descend } from './descent.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
-import { penaltyGradientInto } from './penalty.ts';
 import { type ClusterProblem, problemOf } from './problem.ts';
 import { curvaturePressuresInto } from './pressures.ts';
 import { perimeterInto } from './wall-terms.ts';
