@@ -26,7 +26,8 @@ function rounded(value: unknown): unknown {
  * digits except in the query, keys in a fixed order. Same catalogue, same bytes.
  */
 export function writeCatalogue(catalogue: Catalogue): string {
-  const { entries, ...head } = rounded(catalogue) as Catalogue;
+  const { entries: all, ...head } = rounded(catalogue) as Catalogue;
+  const entries = catalogue.compact === true ? all.filter((e) => e.status === 'ok') : all;
   // the query as asked, to the last digit: areas that differ only beyond 12 digits are still different
   // areas to the ranking (other classes, other candidates), and the reader recounts from them
   head.query = catalogue.query;
@@ -34,14 +35,15 @@ export function writeCatalogue(catalogue: Catalogue): string {
     '{',
     `  "format": ${JSON.stringify(head.format)},`,
     `  "version": ${head.version},`,
+    ...(catalogue.compact === true ? ['  "compact": true,'] : []),
     `  "query": ${JSON.stringify(head.query)},`,
     `  "counts": ${JSON.stringify(head.counts)},`,
     '  "entries": [',
-    entries.map((e) => `    ${JSON.stringify(e)}`).join(',\n'),
+    ...(entries.length > 0 ? [entries.map((e) => `    ${JSON.stringify(e)}`).join(',\n')] : []),
     '  ]',
     '}',
   ];
-  return lines.filter((l, i) => !(l === '' && i === 6)).join('\n') + '\n';
+  return lines.join('\n') + '\n';
 }
 
 /** The catalogue schema's file; catalogues/ sits two folders above both src/catalogue and dist/catalogue. */

@@ -99,6 +99,11 @@ export interface CatalogueEntry {
 export interface Catalogue {
   format: typeof CATALOGUE_FORMAT;
   version: typeof CATALOGUE_VERSION;
+  /**
+   * A compact catalogue (for a census): only the certified entries are listed; the failures are in
+   * counts.failures alone. Absent for a full catalogue.
+   */
+  compact?: true;
   query: CatalogueQuery;
   counts: CatalogueCounts;
   /** Certified equilibria by rank, then failures by code and assignment. */

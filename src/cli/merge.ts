@@ -11,6 +11,7 @@ import { checkSheetTop, entriesSheet, SHEET_LIMIT } from './drawings.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { wholeNumber } from './parse.ts';
 import { catalogueTable } from './table.ts';
+import { catalogueFileBytes } from './show.ts';
 
 /** Attach `merge` to the program. */
 export function addMergeCommand(program: Command): void {
@@ -19,6 +20,7 @@ export function addMergeCommand(program: Command): void {
     .argument('<parts...>', 'the part files written by rank --shard i/k, every shard once, in any order')
     .requiredOption('--out <file.json>', 'write the merged catalogue (whole or not at all)')
     .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${SHEET_LIMIT})`)
+    .option('--compact', 'write only the certified entries (failures as counts by kind), for a census; FILE.json.gz is gzip-compressed')
     .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1, undefined, 'Top'), 25)
     .action(async (paths: string[], opts, command: Command) => {
       checkSheetTop(opts.top, command.getOptionValueSource('top') === 'cli', opts.sheet);
@@ -36,10 +38,12 @@ export function addMergeCommand(program: Command): void {
           }
           return { part: readPart(text, source), source };
         });
-        const text = writeCatalogue(mergeParts(parts, packageInfo().version));
+        const merged = mergeParts(parts, packageInfo().version);
+        if (opts.compact) merged.compact = true;
+        const text = writeCatalogue(merged);
         // the merged catalogue must pass every check a reader makes
         const catalogue = readCatalogue(text, opts.out);
-        out.write(text);
+        out.write(catalogueFileBytes(text, opts.out));
         const top = catalogue.entries.filter((e) => e.rank !== null).slice(0, Math.min(opts.top, SHEET_LIMIT));
         if (sheet !== null) sheet.write(entriesSheet(top, `areas ${catalogue.query.areas.join(', ')}`));
         return catalogue;

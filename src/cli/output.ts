@@ -52,11 +52,11 @@ export class OutputFile {
     }
   }
 
-  /** Append text. @throws OutputError when it cannot be written. */
-  write(text: string): void {
+  /** Append text (or bytes). @throws OutputError when it cannot be written. */
+  write(text: string | Uint8Array): void {
     try {
       if (this.fd === -1) this.fd = openSync(this.target, 'w');
-      const bytes = Buffer.from(text);
+      const bytes = typeof text === 'string' ? Buffer.from(text) : text;
       let offset = 0;
       while (offset < bytes.length) offset += writeSync(this.fd, bytes, offset);
     } catch (error) {

@@ -11,6 +11,7 @@ import { areasFrom, parseAreas } from './areas.ts';
 import { filterFromOptions, parseSeconds, parseShard, wholeNumber } from './parse.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { catalogueTable } from './table.ts';
+import { catalogueFileBytes } from './show.ts';
 import { checkSheetTop, entriesSheet, SHEET_LIMIT } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { cliStreams } from './streams.ts';
@@ -115,6 +116,7 @@ export function addRankCommand(program: Command): void {
     .option('--large', `allow more than ${RANK_LIMIT} cells`)
     .option('--out <file.json>', 'write the catalogue (whole or not at all)')
     .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${SHEET_LIMIT})`)
+    .option('--compact', 'write only the certified entries (failures as counts by kind), for a census; FILE.json.gz is gzip-compressed')
     .option(
       '--shard <i/k>',
       'rank only part i of k and write it with --out as a part file for `lather merge`; "slurm" takes i and k ' +
@@ -152,7 +154,8 @@ export function addRankCommand(program: Command): void {
           },
         });
         (progress as Progress | null)?.stop();
-        out?.write(writeCatalogue(catalogue));
+        if (opts.compact) catalogue.compact = true;
+        out?.write(catalogueFileBytes(writeCatalogue(catalogue), opts.out));
         if (sheet !== null) {
           const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, SHEET_LIMIT));
           if (top.length > 0) sheet.write(entriesSheet(top, `areas ${areas.join(', ')}`));

@@ -66,6 +66,7 @@ export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): 
   for (const r of rows) lines.push(line(r));
   if (ranked.length > top) lines.push(`... ${ranked.length - top} more equilibria (--top ${ranked.length} shows them)`);
   for (const r of failRows) lines.push(line(r));
-  if (!stableOnly && failures.length > top) lines.push(`... ${failures.length - top} more failures (all are in the catalogue file)`);
+  if (!stableOnly && failures.length > top) lines.push(`... ${failures.length - top} more failures${c.compact === true ? '' : ' (all are in the catalogue file)'}`);
+  if (c.compact === true && !stableOnly) lines.push('(a compact catalogue: its failures are counted above, not listed)');
   return lines;
 }
