@@ -5,29 +5,13 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
+import { roundedWritten } from '../catalogue/types.ts';
 import type { Atlas } from './types.ts';
 
 /** Format name written into every atlas file. */
 export const ATLAS_FORMAT = 'lather-atlas';
 /** Version of the atlas format this release reads and writes. */
 export const ATLAS_VERSION = 1;
-/** Significant digits of every float written (the relaxer certifies to about 1e-10 relative). */
-const DIGITS = 12;
-
-function rounded(value: unknown): unknown {
-  if (typeof value === 'number') {
-    if (!Number.isFinite(value) || Number.isInteger(value)) return value;
-    const r = Number(value.toPrecision(DIGITS));
-    return Object.is(r, -0) ? 0 : r;
-  }
-  if (Array.isArray(value)) return value.map(rounded);
-  if (value !== null && typeof value === 'object') {
-    const out: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(value)) out[k] = rounded(v);
-    return out;
-  }
-  return value;
-}
 
 /**
  * The atlas as JSON text: the query on one line, the summary one field (or one class, one boundary) per
@@ -36,7 +20,8 @@ function rounded(value: unknown): unknown {
  * (least share 0) is written as null.
  */
 export function atlasJson(atlas: Atlas): string {
-  const a = rounded(atlas) as Atlas;
+  // floats to 12 significant digits, as catalogues are written (the relaxer certifies to about 1e-10)
+  const a = roundedWritten(atlas) as Atlas;
   const query = { cells: a.cells, samples: a.samples.length, seed: a.seed, minShare: a.minShare };
   const summary = {
     reachableRatio: Number.isFinite(a.reachableRatio) ? a.reachableRatio : null,

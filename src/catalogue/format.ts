@@ -6,27 +6,16 @@ import { createRequire } from 'node:module';
 import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
 import { checkCatalogueConsistency } from './consistency.ts';
-import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, roundWritten } from './types.ts';
+import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, roundedWritten } from './types.ts';
 
 export { WRITE_DIGITS } from './types.ts';
-
-function rounded(value: unknown): unknown {
-  if (typeof value === 'number') return roundWritten(value);
-  if (Array.isArray(value)) return value.map(rounded);
-  if (value !== null && typeof value === 'object') {
-    const out: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(value)) out[k] = rounded(v);
-    return out;
-  }
-  return value;
-}
 
 /**
  * The catalogue as JSON text: the head pretty-printed, one entry per line, floats to 12 significant
  * digits except in the query, keys in a fixed order. Same catalogue, same bytes.
  */
 export function writeCatalogue(catalogue: Catalogue): string {
-  const { entries: all, ...head } = rounded(catalogue) as Catalogue;
+  const { entries: all, ...head } = roundedWritten(catalogue) as Catalogue;
   const entries = catalogue.compact === true ? all.filter((e) => e.status === 'ok') : all;
   // the query as asked, to the last digit: areas that differ only beyond 12 digits are still different
   // areas to the ranking (other classes, other candidates), and the reader recounts from them

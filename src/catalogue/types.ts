@@ -19,6 +19,18 @@ export function roundWritten(x: number): number {
   return Object.is(r, -0) ? 0 : r;
 }
 
+/** A copy of a JSON value with every number rounded as roundWritten rounds it (objects keep their key order). */
+export function roundedWritten(value: unknown): unknown {
+  if (typeof value === 'number') return roundWritten(value);
+  if (Array.isArray(value)) return value.map(roundedWritten);
+  if (value !== null && typeof value === 'object') {
+    const out: Record<string, unknown> = {};
+    for (const [k, v] of Object.entries(value)) out[k] = roundedWritten(v);
+    return out;
+  }
+  return value;
+}
+
 /** What was asked. */
 export interface CatalogueQuery {
   /** The areas as given, in the user's order. */
