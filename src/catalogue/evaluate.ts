@@ -5,7 +5,7 @@
 // answer when there is one (warm start), else from the barycentric drawing.
 
 import { clusterFromCode, cellPermutations } from '../maps/cluster.ts';
-import { t1Swap } from '../maps/t1.ts';
+import { wallSwapCode } from '../maps/t1.ts';
 import { relax, relaxFrom } from '../solver/newton.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import type { Equilibrium } from '../solver/result.ts';
@@ -55,11 +55,7 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   const solve = (s: Int32Array, from: Equilibrium | null): CandidateResult => {
     const areas = areasOf(s, task.classes);
     const eq = from !== null && warm ? relaxFrom(cluster.map, areas, from, task.newton) : relax(cluster.map, areas, task.newton);
-    let becomes: string | null = null;
-    if (eq.status === 'wall-collapse' && eq.collapsingWall !== null) {
-      const swapped = t1Swap(cluster, lowerDartOfWall(cluster.map.twins, eq.collapsingWall));
-      becomes = swapped === null ? null : swapped.code;
-    }
+    const becomes = eq.status === 'wall-collapse' && eq.collapsingWall !== null ? wallSwapCode(cluster, eq.collapsingWall) : null;
     const result = { code: task.code, assignment: [...s], equilibrium: eq, becomes };
     out.push(result);
     return result;
@@ -73,18 +69,6 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   }
   searchCluster(task, cluster.map.faceCount - 1, group, (s, from) => solve(s, from), cluster.map, out);
   return out;
-}
-
-/** Dart of wall k in map.wallIndex() numbering: the k-th dart e (ascending) with e < twins[e]. */
-export function lowerDartOfWall(twins: Int32Array, k: number): number {
-  let seen = 0;
-  for (let e = 0; e < twins.length; e++) {
-    if (e < twins[e]) {
-      if (seen === k) return e;
-      seen++;
-    }
-  }
-  return -1;
 }
 
 /**

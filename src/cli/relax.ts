@@ -3,9 +3,8 @@
 import { type Command } from 'commander';
 import { arrangementIds, resolveArrangement } from '../maps/resolve.ts';
 import { summarizeCluster } from '../maps/describe.ts';
-import { t1Swap } from '../maps/t1.ts';
+import { wallSwapCode } from '../maps/t1.ts';
 import { type Cluster } from '../maps/cluster.ts';
-import { lowerDartOfWall } from '../catalogue/evaluate.ts';
 import { relax } from '../solver/newton.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import { renderClusterSvg } from '../render/svg.ts';
@@ -27,9 +26,7 @@ export function areasForCluster(cluster: Cluster, given: number[] | undefined, l
 
 /** The arrangement a collapsing wall's T1 swap leads to, as its code, or null. */
 export function t1Neighbour(cluster: Cluster, eq: Equilibrium): string | null {
-  if (eq.status !== 'wall-collapse' || eq.collapsingWall === null) return null;
-  const next = t1Swap(cluster, lowerDartOfWall(cluster.map.twins, eq.collapsingWall));
-  return next === null ? null : next.code;
+  return eq.status === 'wall-collapse' && eq.collapsingWall !== null ? wallSwapCode(cluster, eq.collapsingWall) : null;
 }
 
 function e(x: number): string {

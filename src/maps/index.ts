@@ -11,5 +11,5 @@ export { type ClusterSummary, summarizeCluster } from './describe.ts';
 export { adjacencyGraph, graphmlGraph } from './adjacency.ts';
 export { type ArrangementCounts, countArrangements, rootedMapCount } from './count.ts';
 export { COUNT_IN_WORDS_ABOVE, DURATION_IN_WORDS_ABOVE, countText, durationText, estimateClusterCount } from './estimate.ts';
-export { t1Swap } from './t1.ts';
+export { t1Swap, lowerDartOfWall, wallSwapCode } from './t1.ts';
 export { ARRANGEMENT_COUNTS, ID_LIMIT, resolveArrangement, arrangementIds } from './resolve.ts';

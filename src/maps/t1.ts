@@ -65,3 +65,24 @@ export function t1Swap(cluster: Cluster, d: number): Cluster | null {
   if (x === d || x === dt) x = map.faceDarts[map.faceStarts[0] + 1];
   return clusterOf(swapped, swapped.faceOf[slot[x]]);
 }
+
+/** Dart of wall k in map.wallIndex() numbering: the k-th dart e (ascending) with e < twins[e]. */
+export function lowerDartOfWall(twins: Int32Array, k: number): number {
+  let seen = 0;
+  for (let e = 0; e < twins.length; e++) {
+    if (e < twins[e]) {
+      if (seen === k) return e;
+      seen++;
+    }
+  }
+  return -1;
+}
+
+/**
+ * The code of the arrangement the T1 swap of wall k (map.wallIndex() numbering) leads to, or null when
+ * the cluster has no walls or the swap leaves no admissible cluster.
+ */
+export function wallSwapCode(cluster: Cluster, k: number): string | null {
+  const dart = lowerDartOfWall(cluster.map.twins, k);
+  return dart < 0 ? null : (t1Swap(cluster, dart)?.code ?? null);
+}

@@ -8,7 +8,7 @@
 
 import { type CubicMap, junctionOf } from '../maps/cubic-map.ts';
 import type { Equilibrium } from '../solver/result.ts';
-import { lowerDartOfWall } from '../catalogue/evaluate.ts';
+import { lowerDartOfWall } from '../maps/t1.ts';
 import { t1Neighbour } from './candidates.ts';
 import { type KnownState, type PathContext, extrapolatedPerimeter, nearest, probe } from './probe.ts';
 import type { Boundary } from './types.ts';

@@ -7,9 +7,8 @@
 
 import { cellPermutations, enumerateClusters, type Cluster } from '../maps/cluster.ts';
 import { summarizeCluster } from '../maps/describe.ts';
-import { t1Swap } from '../maps/t1.ts';
+import { wallSwapCode } from '../maps/t1.ts';
 import { type AreaClasses, orbitAssignments, userIndices } from '../catalogue/assign.ts';
-import { lowerDartOfWall } from '../catalogue/evaluate.ts';
 import { type ArrangementFilter, passesFilter } from '../catalogue/filter.ts';
 import type { AreaFormula } from './formula.ts';
 
@@ -109,9 +108,6 @@ export function cellFormulasText(candidate: SweepCandidate): string {
  * leads to, as code and id, or null when the swap leaves no admissible cluster.
  */
 export function t1Neighbour(candidate: SweepCandidate, wall: number, ids: ReadonlyMap<string, string>): { code: string; id: string } | null {
-  const dart = lowerDartOfWall(candidate.cluster.map.twins, wall);
-  if (dart < 0) return null;
-  const swapped = t1Swap(candidate.cluster, dart);
-  if (swapped === null) return null;
-  return { code: swapped.code, id: ids.get(swapped.code) ?? '?' };
+  const code = wallSwapCode(candidate.cluster, wall);
+  return code === null ? null : { code, id: ids.get(code) ?? '?' };
 }

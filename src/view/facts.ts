@@ -4,17 +4,10 @@
 
 import { clusterFromCode, type Cluster } from '../maps/cluster.ts';
 import { junctionOf } from '../maps/cubic-map.ts';
-import { t1Swap } from '../maps/t1.ts';
+import { wallSwapCode } from '../maps/t1.ts';
 import { arcLength } from '../arcs/arc.ts';
-import { lowerDartOfWall } from '../catalogue/evaluate.ts';
 import type { CatalogueEntry } from '../catalogue/types.ts';
 import type { EntryFacts } from './query.ts';
-
-/** The code of the arrangement the T1 swap of wall k (map.wallIndex numbering) leads to, or null. */
-export function wallSwapCode(cluster: Cluster, k: number): string | null {
-  if (cluster.map.twins.length === 0) return null;
-  return t1Swap(cluster, lowerDartOfWall(cluster.map.twins, k))?.code ?? null;
-}
 
 /** The shortest wall of a drawing (arc lengths), by wall index; null for the circle. */
 export function shortestWallOf(cluster: Cluster, coords: readonly number[], bulges: readonly number[]): number | null {

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { rankAreas } from '../../src/catalogue/rank.ts';
-import { lowerDartOfWall } from '../../src/catalogue/evaluate.ts';
+import { lowerDartOfWall } from '../../src/maps/t1.ts';
 import { relaxFrom } from '../../src/solver/newton.ts';
 import type { CatalogueEntry } from '../../src/catalogue/types.ts';
 import { parseAreaFormulas } from '../../src/sweep/formula.ts';

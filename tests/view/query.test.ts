@@ -5,10 +5,11 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readCatalogue } from '../../src/catalogue/format.ts';
 import { arcLength } from '../../src/arcs/arc.ts';
-import { lowerDartOfWall } from '../../src/catalogue/evaluate.ts';
+import { lowerDartOfWall } from '../../src/maps/t1.ts';
 import { clusterFromCode } from '../../src/maps/cluster.ts';
 import { junctionOf } from '../../src/maps/cubic-map.ts';
-import { entryFacts, wallSwapCode } from '../../src/view/facts.ts';
+import { entryFacts } from '../../src/view/facts.ts';
+import { wallSwapCode } from '../../src/maps/t1.ts';
 import { DEFAULT_VIEW, SORT_KEYS, type ViewRow, type ViewState, readFragment, viewRows, writeFragment } from '../../src/view/query.ts';
 
 const catalogue = readCatalogue(readFileSync(new URL('../../catalogues/equal-5.json', import.meta.url), 'utf8'));

@@ -10,7 +10,7 @@ import { entryDrawing, equilibriumDrawing } from '../../render/entry.ts';
 import { renderClusterSvg } from '../../render/svg.ts';
 import { renderContactSheet, type SheetItem } from '../../render/sheet.ts';
 import { escapeXml, formatValue } from '../../render/format.ts';
-import { wallSwapCode } from '../facts.ts';
+import { wallSwapCode } from '../../maps/t1.ts';
 import { DATA_ELEMENT_ID, type ViewData } from '../page.ts';
 import { DEFAULT_VIEW, type ViewRow, type ViewState, passesView, readFragment, viewRows, writeFragment } from '../query.ts';
 import { CardGrid } from './grid.ts';
