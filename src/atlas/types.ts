@@ -84,15 +84,11 @@ export interface AtlasSample {
   claim?: ClaimAtSample;
 }
 
-/** A winner class: arrangement plus area-rank pattern. */
-export interface AtlasClass {
-  /** Position in Atlas.classes (most samples first). */
-  class: number;
-  code: string;
-  id: string;
-  ranks: number[];
-  sidesByRank: number[];
-  wallsByRank: [number, number][];
+/**
+ * A winner class: arrangement plus area-rank pattern, described as its placements are (`class` is the
+ * class's position in Atlas.classes, most samples first).
+ */
+export interface AtlasClass extends Pick<AtlasPlacement, 'class' | 'code' | 'id' | 'ranks' | 'sidesByRank' | 'wallsByRank'> {
   /** Samples won, and their share of all samples. */
   samples: number;
   share: number;
