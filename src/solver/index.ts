@@ -3,6 +3,9 @@
 export * from '../errors.ts';
 export { embedCluster } from '../arcs/embed.ts';
 export { relax, relaxFrom, type EquilibriumStart } from './newton.ts';
+export {
+  DEFAULT_STARTS, type EquilibriumSearch, type FoundEquilibrium, type LensRange, type SearchOptions, findEquilibria,
+} from './equilibria.ts';
 export { type NewtonOptions, resolveOptions } from './options.ts';
 export type { Equilibrium, EquilibriumStatus } from './result.ts';
 export { type Certificate, checkEquilibrium, certificatePasses } from './certificate.ts';
