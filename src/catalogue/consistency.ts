@@ -32,6 +32,13 @@ export const WRITE_ROUNDING = 0.5 * 10 ** (1 - WRITE_DIGITS);
  */
 export const MAX_ROUNDING_SLACK = 1e-4;
 
+/**
+ * Relative perimeter difference above which two equilibria of one candidate are distinct (the search's
+ * rule, documented on solver/equilibria.ts EquilibriumSearch.found).
+ * NOTE: the solver's contract states the value in words only; it should export it, and this should read it.
+ */
+export const SAME_EQUILIBRIUM = 1e-9;
+
 /** The tolerance an 'ok' certificate is held to: the relaxer's own (solver/options.ts). */
 export const CERTIFICATE_TOLERANCE = resolveOptions().certificateTolerance;
 
@@ -56,12 +63,25 @@ interface Arrangement {
   passes: boolean;
   /** The cell permutations (computed only when the query has areas of more than one value). */
   group: Int32Array[] | null;
-  /** The candidates seen with this code, as orbit representatives (kept only when there can be more than one). */
-  assignments: Set<string> | null;
-  /** Entries with this code. */
-  entries: number;
-  /** Position of the first of them. */
+  /** The candidates seen with this code, by orbit representative ('' when there is one candidate per code). */
+  candidates: Map<string, Candidate>;
+  /** Position of the first entry with this code. */
   first: number;
+}
+
+/** What the reader learns of one candidate from its entries. */
+interface Candidate {
+  /** Its assignment as written (every entry of the candidate writes the same). */
+  assignment: string;
+  /** Position of its first entry. */
+  first: number;
+  /** Whether its entry is a failure (then it has no other). */
+  failure: boolean;
+  /** Starts tried (every entry of the candidate writes the same), and the starts its entries reached. */
+  tried: number;
+  reached: number;
+  /** Its certified entries so far. */
+  found: CatalogueEntry[];
 }
 
 /** A refusal in the making: what was found and what was expected (fail() adds the file and the entry). */
@@ -94,6 +114,7 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
   const compact = catalogue.compact === true;
   let equilibria = 0;
   let stable = 0;
+  let saddles = 0;
 
   // every entry on its own, then its place in the ranking
   let best: number | null = null;
@@ -109,25 +130,31 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
         const summary = filtering ? summarizeCluster(cluster) : null;
         known = {
           cluster, sides: summary?.sides ?? sidesOf(cluster), passes: summary === null || passesFilter(summary, query.filter), group,
-          assignments: group === null ? null : new Set(), entries: 0, first: k,
+          candidates: new Map(), first: k,
         };
         arrangements.set(entry.code, known);
       }
-      known.entries++;
-      checkEntry(entry, known, catalogue, classes, idOf, codeOf, scratch);
+      checkEntry(entry, k, known, catalogue, classes, idOf, codeOf, scratch);
       if (entry.status === 'ok') {
         equilibria++;
         if (entry.index === 0) stable++;
+        else saddles++;
+        // rank 1 is the least stable equilibrium (a saddle is never ranked before it: rank.ts)
+        if (k > 0 && entry.index === 0 && entries[0].index !== 0) {
+          refuse(`index is 0 after rank 1 of index ${entries[0].index}`, 'rank 1 stable when any equilibrium is (saddles after the least stable one)');
+        }
         // ranks 1, 2, ... in file order, before every failure, perimeters not decreasing: the writer
         // orders perimeters rounded to ORDER_DIGITS (ties by code), so one may be below the one before
         // by a unit in that digit, plus the rounding of both to WRITE_DIGITS
         if (entry.rank !== k + 1) refuse(`rank is ${entry.rank}`, `${k + 1} (certified entries come first, ranked in file order)`);
         const p = entry.perimeter!;
-        if (previous !== null && p < previous * (1 - 10 ** (1 - ORDER_DIGITS) - 2 * WRITE_ROUNDING)) {
+        // a saddle below the least stable perimeter (rank 1) is placed at it (rank.ts rankingPerimeter)
+        const placed = best !== null && entry.index !== 0 && entries[0].index === 0 ? Math.max(p, best) : p;
+        if (previous !== null && placed < previous * (1 - 10 ** (1 - ORDER_DIGITS) - 2 * WRITE_ROUNDING)) {
           refuse(`perimeter is ${p}, below rank ${k}'s ${previous}`, 'ranks ordered by perimeter');
         }
         best ??= p;
-        previous = p;
+        previous = placed;
         const gap = (100 * (p - best)) / best;
         if (!(Math.abs(entry.gapPercent! - gap) <= 1e-8 * (1 + gap))) {
           refuse(`gapPercent is ${entry.gapPercent}`, `${gap.toPrecision(6)} (100 (perimeter - best) / best, best ${best})`);
@@ -151,10 +178,13 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
     }
   };
   const listedFailures = compact ? Object.values(counts.failures).reduce((p, q) => p + q, 0) : 0;
-  const tried = entries.length + listedFailures;
-  expectCount('tried', counts.tried, tried, compact ? 'the entries and the failures counted' : 'every entry is a candidate relaxed');
+  let listedCandidates = 0;
+  for (const known of arrangements.values()) listedCandidates += known.candidates.size;
+  const tried = listedCandidates + listedFailures;
+  expectCount('tried', counts.tried, tried, compact ? 'the candidates listed and the failures counted' : 'the candidates among the entries, each relaxed');
   expectCount('equilibria', counts.equilibria, equilibria, 'the entries of status "ok"');
   expectCount('stable', counts.stable, stable, 'the entries of status "ok" and index 0');
+  expectCount('saddles', counts.saddles, saddles, 'the entries of status "ok" and index 1 or more');
   if (!compact) {
     expectCount('failures', sortedKeys(counts.failures), sortedKeys(tally), 'the other entries by status');
     expectCount('arrangements', counts.arrangements, arrangements.size, 'the arrangements among the entries: every kept arrangement has one');
@@ -164,7 +194,7 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
   // candidates: the assignments up to symmetry of every kept arrangement (orbitCount, as rank.ts counts)
   const tooMany = (known: Arrangement, count: number, bound: string): never => {
     const k = known.first;
-    fail(source, entryLabel(entries[k], k), `its arrangement has ${known.entries} entries when expected ${bound}${count} (its assignments up to symmetry)`);
+    fail(source, entryLabel(entries[k], k), `its arrangement has ${known.candidates.size} candidates when expected ${bound}${count} (its assignments up to symmetry)`);
   };
   let candidates = 0;
   let rootings = 0n;
@@ -175,11 +205,11 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
     orbits.set(known, count);
     candidates += count;
     if (n >= 2) rootings += BigInt((4 * walls) / known.cluster.symmetry);
-    if (known.entries > count) tooMany(known, count, 'at most ');
+    if (known.candidates.size > count) tooMany(known, count, 'at most ');
   }
   if (!compact) {
     expectCount('candidates', counts.candidates, candidates, 'the assignments up to symmetry of the arrangements listed');
-    for (const [known, count] of orbits) if (counts.exhaustive && known.entries < count) tooMany(known, count, '');
+    for (const [known, count] of orbits) if (counts.exhaustive && known.candidates.size < count) tooMany(known, count, '');
   } else if (candidates > counts.candidates) {
     fail(source, where, `candidates is ${counts.candidates} when expected at least ${candidates} (the candidates of the arrangements listed)`);
   }
@@ -238,13 +268,13 @@ function sidesOf(cluster: Cluster): number[] {
 const same = (a: readonly number[], b: readonly number[]): boolean => a.length === b.length && a.every((x, i) => x === b[i]);
 
 function checkEntry(
-  entry: CatalogueEntry, known: Arrangement, catalogue: Catalogue, classes: AreaClasses,
+  entry: CatalogueEntry, k: number, known: Arrangement, catalogue: Catalogue, classes: AreaClasses,
   idOf: Map<string, string>, codeOf: Map<string, string>,
   scratch: { used: Uint8Array; classes: Int32Array },
 ): void {
   const { query } = catalogue;
   const n = query.areas.length;
-  const { cluster, sides, passes, group, assignments } = known;
+  const { cluster, sides, passes, group, candidates } = known;
   if (!same(entry.sides, sides)) refuse(`sides are [${entry.sides}]`, `[${sides}] (the side counts of cells 1..${n} of its code)`);
   if (!passes) refuse('arrangement fails the query\'s filter', `only arrangements that pass ${JSON.stringify(query.filter)}`);
 
@@ -280,11 +310,7 @@ function checkEntry(
   // of each orbit, a search the sequence it tried
   const given = userIndices(s, classes);
   if (!same(given, assignment)) refuse(`assignment is [${assignment}]`, `[${given}] (equal areas given out in the query's order)`);
-  if (group !== null && assignments !== null) {
-    const key = orbitRepresentative(s, group).join(',');
-    if (assignments.has(key)) refuse(`assignment [${assignment}] repeats the candidate of an earlier entry`, 'each candidate (assignment up to symmetry) once');
-    assignments.add(key);
-  }
+  checkCandidate(entry, k, candidates, group === null ? '' : orbitRepresentative(s, group).join(','), cluster);
 
   // the failure fields
   const walls = cluster.map.twins.length / 2;
@@ -299,6 +325,51 @@ function checkEntry(
   }
   for (const field of answers) if (entry[field] === null) refuse(`${field} is null`, 'a value for a certified ("ok") entry');
   checkAnswer(entry, cluster, Float64Array.from(assignment, (i) => query.areas[i]));
+}
+
+/**
+ * An entry among the others of its candidate (`key`, its orbit representative): a failure alone, or
+ * certified equilibria that are distinct (as solver/equilibria.ts keeps them: perimeters more than
+ * SAME_EQUILIBRIUM apart relative, or another family or index), all with the candidate's assignment and
+ * starts tried, together reached by at most the starts tried; its family, if any, within its cluster.
+ */
+function checkCandidate(entry: CatalogueEntry, k: number, candidates: Map<string, Candidate>, key: string, cluster: Cluster): void {
+  const ok = entry.status === 'ok';
+  const assignment = entry.assignment.join(',');
+  let known = candidates.get(key);
+  if (known === undefined) {
+    known = { assignment, first: k, failure: !ok, tried: entry.tried, reached: 0, found: [] };
+    candidates.set(key, known);
+  } else {
+    const where = `that of entry ${known.first + 1}`;
+    if (known.failure || !ok) refuse(`assignment [${entry.assignment}] repeats the candidate of an earlier entry`, 'each candidate once, or once per equilibrium (a failure only alone)');
+    if (known.assignment !== assignment) refuse(`assignment is [${entry.assignment}]`, `[${known.assignment}], ${where}, for one candidate`);
+    if (known.tried !== entry.tried) refuse(`tried is ${entry.tried}`, `${known.tried}, ${where} of the same candidate`);
+  }
+  if (!ok) {
+    if (entry.reached !== null || entry.family !== null) refuse('reached or family is given for a failure', 'null (a failure has no equilibrium)');
+    return;
+  }
+  if (entry.reached === null) refuse('reached is null', 'the starts that reached a certified entry (0 or more)');
+  known.reached += entry.reached;
+  if (known.reached > known.tried) refuse(`its candidate's entries were reached by ${known.reached} starts`, `at most the ${known.tried} tried`);
+  const { family } = entry;
+  if (family !== null) {
+    const walls = cluster.map.twins.length / 2;
+    if (!(family.cell <= cluster.cells)) refuse(`family.cell is ${family.cell}`, `a cell from 1 to ${cluster.cells}`);
+    if (!family.walls.every((w) => w < walls)) refuse(`family.walls are [${family.walls}]`, `walls from 0 to ${walls - 1}`);
+    if (!(family.from <= family.at && family.at <= family.to)) refuse(`family range is ${family.from} to ${family.to} at ${family.at}`, 'from <= at <= to');
+    if (!(entry.zeroModes! >= 1)) refuse(`zeroModes is ${entry.zeroModes} for a family`, 'at least 1 (a lens that slides is a zero mode)');
+  }
+  const p = entry.perimeter!;
+  const familyText = JSON.stringify(family);
+  for (const other of known.found) {
+    const apart = Math.abs(p - other.perimeter!) > (SAME_EQUILIBRIUM - 4 * WRITE_ROUNDING) * Math.max(p, other.perimeter!);
+    if (!apart && other.index === entry.index && JSON.stringify(other.family) === familyText) {
+      refuse(`perimeter ${p} repeats an equilibrium of its candidate (rank ${other.rank})`, `distinct equilibria (perimeters more than ${SAME_EQUILIBRIUM} apart, or another family)`);
+    }
+  }
+  known.found.push(entry);
 }
 
 /**

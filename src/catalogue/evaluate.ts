@@ -1,12 +1,13 @@
 // catalogue stage: relax every candidate assignment of one cluster (or search among them).
 //
 // This is the unit of work a worker thread receives; its result depends only on the task, so a ranking
-// is the same with one worker or many. Within a cluster a candidate starts from the previous certified
-// answer when there is one (warm start), else from the barycentric drawing.
+// is the same with one worker or many. Within a cluster a candidate's search (solver/equilibria.ts)
+// starts from the previous certified answer when there is one (warm start), then from its own first
+// drawings (barycentric, construction path, seeded perturbations).
 
 import { clusterFromCode, cellPermutations } from '../maps/cluster.ts';
 import { wallSwapCode } from '../maps/t1.ts';
-import { relax, relaxFrom } from '../solver/newton.ts';
+import { type EquilibriumSearch, findEquilibria } from '../solver/equilibria.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import { type AreaClasses, areasOf, orbitAssignments, orbitRepresentative } from './assign.ts';
@@ -33,6 +34,12 @@ export interface ClusterTask {
   starts?: ReadonlyMap<string, Equilibrium>;
   /** Options passed to the relaxer. */
   newton?: NewtonOptions;
+  /**
+   * How hard each candidate is searched: first drawings per candidate, and whether saddles are looked
+   * for (solver/equilibria.ts SearchOptions; the perturbed starts are seeded with `seed`).
+   * @default the search's defaults
+   */
+  search?: { starts?: number; unstable?: boolean };
 }
 
 /** One relaxed candidate, as plain data (it crosses thread boundaries). */
@@ -40,6 +47,12 @@ export interface CandidateResult {
   code: string;
   /** Area class of each cell (cell i + 1 at index i). */
   assignment: number[];
+  /** What the search found: every certified equilibrium, or the failure; the starts tried. */
+  search: EquilibriumSearch;
+  /**
+   * The candidate's answer: its first equilibrium found (the least stable one when there is one), else
+   * the failure (warm starts and the local search read it).
+   */
   equilibrium: Equilibrium;
   /** For a wall collapse: the code of the arrangement the T1 swap of that wall leads to, if admissible. */
   becomes: string | null;
@@ -52,11 +65,13 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   const warm = task.warmStart !== false;
   const out: CandidateResult[] = [];
   let previous: Equilibrium | null = null;
+  const options = { ...task.newton, ...task.search, seed: task.seed };
   const solve = (s: Int32Array, from: Equilibrium | null): CandidateResult => {
     const areas = areasOf(s, task.classes);
-    const eq = from !== null && warm ? relaxFrom(cluster.map, areas, from, task.newton) : relax(cluster.map, areas, task.newton);
+    const search = findEquilibria(cluster.map, areas, options, from !== null && warm ? from : null);
+    const eq = search.failure ?? search.found[0].equilibrium;
     const becomes = eq.status === 'wall-collapse' && eq.collapsingWall !== null ? wallSwapCode(cluster, eq.collapsingWall) : null;
-    const result = { code: task.code, assignment: [...s], equilibrium: eq, becomes };
+    const result = { code: task.code, assignment: [...s], search, equilibrium: eq, becomes };
     out.push(result);
     return result;
   };

@@ -1,12 +1,13 @@
 // catalogue stage: write a catalogue as JSON text (deterministic bytes) and read one back, checked
-// against its version, catalogues/catalogue.schema.json and itself (consistency.ts).
+// against its version, catalogues/catalogue.schema.json and itself (consistency.ts). Version 1 files
+// (one entry per candidate, one start each, no saddles searched) are upgraded to version 2 in memory.
 
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { ValidateFunction } from 'ajv';
 import { CatalogueFormatError } from '../errors.ts';
 import { checkCatalogueConsistency } from './consistency.ts';
-import { CATALOGUE_FORMAT, CATALOGUE_VERSION, type Catalogue, roundedWritten } from './types.ts';
+import { CATALOGUE_FORMAT, CATALOGUE_VERSION, CATALOGUE_VERSIONS_READ, type Catalogue, roundedWritten } from './types.ts';
 
 export { WRITE_DIGITS } from './types.ts';
 
@@ -35,6 +36,31 @@ export function writeCatalogue(catalogue: Catalogue): string {
   return lines.join('\n') + '\n';
 }
 
+/**
+ * A version 1 catalogue as version 2 says the same thing, in place: every candidate was relaxed from one
+ * first drawing and saddles were not searched for (query.starts 1, query.unstable false); each
+ * certified entry was reached by that start (reached 1, no family recorded); counts.saddles is the
+ * certified entries of index above 0. Leaves anything malformed as it is, for the schema to name.
+ */
+function upgradeVersion1(data: Record<string, unknown>): void {
+  data.version = CATALOGUE_VERSION;
+  const query = data.query as Record<string, unknown> | null;
+  if (query !== null && typeof query === 'object' && !Array.isArray(query)) Object.assign(query, { starts: 1, unstable: false });
+  const counts = data.counts as Record<string, unknown> | null;
+  if (counts !== null && typeof counts === 'object' && typeof counts.equilibria === 'number' && typeof counts.stable === 'number') {
+    // saddles after stable, as version 2 writes them
+    const { failures, rootings, ...rest } = counts;
+    for (const key of Object.keys(counts)) delete counts[key];
+    Object.assign(counts, rest, { saddles: (rest.equilibria as number) - (rest.stable as number), failures, rootings });
+  }
+  if (!Array.isArray(data.entries)) return;
+  for (const entry of data.entries as unknown[]) {
+    if (entry === null || typeof entry !== 'object' || Array.isArray(entry)) continue;
+    const e = entry as Record<string, unknown>;
+    Object.assign(e, { reached: e.status === 'ok' ? 1 : null, tried: 1, family: null });
+  }
+}
+
 /** The catalogue schema's file; catalogues/ sits two folders above both src/catalogue and dist/catalogue. */
 export const CATALOGUE_SCHEMA_URL = new URL('../../catalogues/catalogue.schema.json', import.meta.url);
 
@@ -58,7 +84,8 @@ function kindOf(value: unknown): string {
 
 /**
  * Read a catalogue from JSON text (a leading UTF-8 byte-order mark is skipped), then check it: format
- * name, version, schema, and the consistency of its counts, ranks and answers (consistency.ts).
+ * name, version (1 or 2; a version 1 file is returned as version 2 says it), schema, and the consistency
+ * of its counts, ranks and answers (consistency.ts).
  * @throws CatalogueFormatError when the text is not JSON, not a lather catalogue, of another version,
  *   fails the schema or contradicts itself; the message names `source` and, for an entry, which one.
  */
@@ -80,9 +107,10 @@ export function readCatalogue(text: string, source = 'catalogue'): Catalogue {
       : `${JSON.stringify(head.version)} is ${kindOf(head.version)}`;
     throw new CatalogueFormatError(`${source}: version ${given} when expected the number ${CATALOGUE_VERSION}.`);
   }
-  if (head.version !== CATALOGUE_VERSION) {
-    throw new CatalogueFormatError(`Got v${head.version} catalogue in ${source} when expected v${CATALOGUE_VERSION}.`);
+  if (!CATALOGUE_VERSIONS_READ.includes(head.version)) {
+    throw new CatalogueFormatError(`Got v${head.version} catalogue in ${source} when expected v${CATALOGUE_VERSIONS_READ.join(' or v')}.`);
   }
+  if (head.version === 1) upgradeVersion1(head as Record<string, unknown>);
   const validate = catalogueValidator();
   if (!validate(data)) {
     const err = validate.errors?.[0];

@@ -13,6 +13,8 @@ import { countText, durationText, estimateClusterCount } from '../maps/estimate.
 import { UsageError } from '../errors.ts';
 import { withPool } from './pool.ts';
 import type { NewtonOptions } from '../solver/options.ts';
+import { DEFAULT_STARTS, type FoundEquilibrium } from '../solver/equilibria.ts';
+import type { Equilibrium } from '../solver/result.ts';
 import { type AreaClasses, areaClasses, orbitCount, userIndices } from './assign.ts';
 import { type CandidateResult, type ClusterTask, evaluateCluster } from './evaluate.ts';
 import { type ArrangementFilter, checkFilter, isFiltering, passesFilter } from './filter.ts';
@@ -40,8 +42,12 @@ export interface RankOptions {
   budgetSeconds?: number;
   /** Worker threads (1 = run in this thread), 1 to WORKER_LIMIT. @default 1 */
   workers?: number;
-  /** Seed of the search's random starts. @default 1 */
+  /** Seed of the search's random starts and of each candidate's perturbed first drawings. @default 1 */
   seed?: number;
+  /** First drawings tried per candidate, a positive integer. @default DEFAULT_STARTS (solver/equilibria.ts) */
+  starts?: number;
+  /** Also look for saddles (index >= 1) and list them. @default false */
+  unstable?: boolean;
   /** Allow more than RANK_LIMIT cells. @default false */
   large?: boolean;
   /** Called with (candidates done, candidates planned) as work completes. */
@@ -108,6 +114,15 @@ export function checkBudget(n: number, filter: ArrangementFilter, budgetSeconds:
   }
 }
 
+/** The first drawings per candidate of rank options: a positive integer. @throws UsageError otherwise. */
+export function startCount(starts: number | undefined): number {
+  const k = starts ?? DEFAULT_STARTS;
+  if (!(Number.isSafeInteger(k) && k >= 1)) {
+    throw new UsageError(`Starts ${k} is not valid when expected a positive whole number of first drawings per candidate.`);
+  }
+  return k;
+}
+
 /** The worker threads of rank options: 1 to WORKER_LIMIT (default 1). @throws UsageError otherwise. */
 export function workerCount(options: RankOptions): number {
   const workers = options.workers ?? 1;
@@ -154,6 +169,8 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
   const budgetSeconds = options.budgetSeconds ?? 60;
   checkBudget(n, filter, budgetSeconds);
   const seed = options.seed ?? 1;
+  const starts = startCount(options.starts);
+  const unstable = options.unstable === true;
   const classes = areaClasses([...areas]);
 
   // enumerate, keep the filtered arrangements, and check the rooting identity on all of them
@@ -180,10 +197,10 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
 
   const tasks: ClusterTask[] = planned.map((p, k) => ({
     code: p.cluster.code, classes, mode: p.candidates <= cap ? 'all' : 'search',
-    cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton,
+    cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton, search: { starts, unstable },
   }));
   return {
-    query: { areas: [...areas], filter, budgetSeconds, seed },
+    query: { areas: [...areas], filter, budgetSeconds, seed, starts, unstable },
     enumerated,
     rootings: {
       sum: n >= 2 ? String(rootings) : '0',
@@ -214,23 +231,26 @@ export async function rankAreas(areas: readonly number[], options: RankOptions =
  */
 export function assembleCatalogue(plan: RankPlan, unranked: CatalogueEntry[]): Catalogue {
   const entries = rankEntries(unranked);
-  const tried = entries.length;
   const failures: Record<string, number> = {};
+  const candidates = new Set<string>();
   let equilibria = 0;
   let stable = 0;
   for (const e of entries) {
+    candidates.add(candidateKey(e));
     if (e.status === 'ok') {
       equilibria++;
       if (e.index === 0) stable++;
     } else failures[e.status] = (failures[e.status] ?? 0) + 1;
   }
+  const tried = candidates.size;
   return {
     format: CATALOGUE_FORMAT,
     version: CATALOGUE_VERSION,
     query: plan.query,
     counts: {
       enumerated: plan.enumerated, arrangements: plan.planned.length, candidates: plan.candidates, tried,
-      skipped: plan.candidates - tried, exhaustive: tried === plan.candidates, equilibria, stable, failures,
+      skipped: plan.candidates - tried, exhaustive: tried === plan.candidates, equilibria, stable,
+      saddles: equilibria - stable, failures,
       rootings: plan.rootings,
     },
     entries,
@@ -287,51 +307,103 @@ export async function runTasks(
 /** Significant digits perimeters are compared at, so rounding noise never reorders equal perimeters. */
 export const ORDER_DIGITS = 11;
 
-/** The entries (not yet ranked) of the candidates task k of a plan relaxed. */
-export function unrankedEntries(plan: RankPlan, k: number, results: readonly CandidateResult[]): CatalogueEntry[] {
-  const p = plan.planned[k];
-  const areas = plan.query.areas;
-  return results.map((r) => {
-    const eq = r.equilibrium;
-    const ok = eq.status === 'ok';
-    const assignment = userIndices(Int32Array.from(r.assignment), plan.classes);
-    return {
-      rank: null,
-      id: p.id,
-      code: p.cluster.code,
-      sides: p.sides,
-      assignment,
-      cellAreas: assignment.map((i) => areas[i]),
-      status: eq.status,
-      perimeter: ok ? eq.perimeter : null,
-      gapPercent: null,
-      index: ok ? eq.index : null,
-      zeroModes: ok ? eq.zeroModes : null,
-      pressures: ok ? [...eq.pressures] : null,
-      geometry: ok ? { coords: [...eq.coords], bulges: [...eq.bulges] } : null,
-      certificate: { ...eq.certificate },
-      iterations: eq.iterations,
-      collapsingWall: eq.collapsingWall,
-      becomes: r.becomes === null ? null : { code: r.becomes, id: plan.ids.get(r.becomes) ?? '?' },
-      collapsingCell: eq.collapsingCell,
-    };
-  });
+/** The candidate an entry belongs to: its code and assignment (the same on all its entries). */
+export function candidateKey(e: { code: string; assignment: readonly number[] }): string {
+  return `${e.code} ${e.assignment.join(',')}`;
 }
 
 /**
- * Put entries in the ranking's total order (perimeter at ORDER_DIGITS, then code, then assignment:
- * whatever order they come in) and number the certified ones, with their gap to the best.
+ * The entries (not yet ranked) of the candidates task k of a plan relaxed: one per equilibrium found,
+ * or one for a candidate without any (its failure).
+ */
+export function unrankedEntries(plan: RankPlan, k: number, results: readonly CandidateResult[]): CatalogueEntry[] {
+  const p = plan.planned[k];
+  const areas = plan.query.areas;
+  const out: CatalogueEntry[] = [];
+  for (const r of results) {
+    const assignment = userIndices(Int32Array.from(r.assignment), plan.classes);
+    const candidate = { id: p.id, code: p.cluster.code, sides: p.sides, assignment, cellAreas: assignment.map((i) => areas[i]) };
+    const tried = r.search.tried;
+    if (r.search.found.length === 0) {
+      const eq = r.search.failure ?? r.equilibrium;
+      const becomes = r.becomes === null ? null : { code: r.becomes, id: plan.ids.get(r.becomes) ?? '?' };
+      out.push(entryOf(candidate, eq, null, tried, becomes));
+    } else {
+      for (const found of r.search.found) out.push(entryOf(candidate, found.equilibrium, found, tried, null));
+    }
+  }
+  return out;
+}
+
+/** One entry: the candidate's fields, then the answer's (a certified one when `found` is given). */
+function entryOf(
+  candidate: Pick<CatalogueEntry, 'id' | 'code' | 'sides' | 'assignment' | 'cellAreas'>, eq: Equilibrium,
+  found: FoundEquilibrium | null, tried: number, becomes: CatalogueEntry['becomes'],
+): CatalogueEntry {
+  const ok = eq.status === 'ok';
+  return {
+    rank: null,
+    ...candidate,
+    status: eq.status,
+    perimeter: ok ? eq.perimeter : null,
+    gapPercent: null,
+    index: ok ? eq.index : null,
+    zeroModes: ok ? eq.zeroModes : null,
+    pressures: ok ? [...eq.pressures] : null,
+    geometry: ok ? { coords: [...eq.coords], bulges: [...eq.bulges] } : null,
+    certificate: { ...eq.certificate },
+    iterations: eq.iterations,
+    collapsingWall: eq.collapsingWall,
+    becomes,
+    collapsingCell: eq.collapsingCell,
+    reached: ok ? (found?.reached ?? 1) : null,
+    tried,
+    family: found?.family === null || found === null ? null : { ...found.family, walls: [...found.family.walls] },
+  };
+}
+
+/** A perimeter as the ranking compares it: ORDER_DIGITS significant digits. */
+export function orderPerimeter(p: number): number {
+  return Number(p.toPrecision(ORDER_DIGITS));
+}
+
+/**
+ * Where a certified entry sits in the ranking: its perimeter (orderPerimeter), but a saddle never
+ * before the least stable perimeter `floor` (-Infinity when there is no stable entry). A saddle below
+ * every stable equilibrium means the search missed the minimiser it descends to; rank 1 stays the
+ * least stable equilibrium, the ranking's answer.
+ */
+export function rankingPerimeter(e: { perimeter: number | null; index: number | null }, floor: number): number {
+  const p = orderPerimeter(e.perimeter!);
+  return e.index === 0 ? p : Math.max(p, floor);
+}
+
+const compareText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 0);
+
+/**
+ * Put entries in the ranking's total order, whatever order they come in: certified ones by perimeter
+ * (rankingPerimeter), then index (stable first), code and assignment, the equilibria of one candidate
+ * by zero modes, exact perimeter and family; then the failures by code and assignment. Number the
+ * certified ones, with their gap to rank 1.
  */
 function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
   const key = (e: CatalogueEntry) => e.assignment.join(',');
+  let floor = Infinity;
+  for (const e of entries) if (e.perimeter !== null && e.index === 0) floor = Math.min(floor, orderPerimeter(e.perimeter));
+  if (floor === Infinity) floor = -Infinity;
   entries.sort((a, b) => {
     if (a.perimeter !== null && b.perimeter !== null) {
-      const pa = Number(a.perimeter.toPrecision(ORDER_DIGITS));
-      const pb = Number(b.perimeter.toPrecision(ORDER_DIGITS));
+      const pa = rankingPerimeter(a, floor);
+      const pb = rankingPerimeter(b, floor);
       if (pa !== pb) return pa - pb;
+      if (a.index !== b.index) return a.index! - b.index!;
     } else if (a.perimeter !== null) return -1;
     else if (b.perimeter !== null) return 1;
-    return a.code < b.code ? -1 : a.code > b.code ? 1 : key(a) < key(b) ? -1 : key(a) > key(b) ? 1 : 0;
+    const byCandidate = compareText(a.code, b.code) || compareText(key(a), key(b));
+    if (byCandidate !== 0 || a.perimeter === null || b.perimeter === null) return byCandidate;
+    // two equilibria of one candidate at the same rounded perimeter
+    return (a.zeroModes! - b.zeroModes!) || (a.perimeter - b.perimeter) ||
+      compareText(JSON.stringify(a.family), JSON.stringify(b.family)) || compareText(JSON.stringify(a.geometry), JSON.stringify(b.geometry));
   });
   const best = entries.length > 0 && entries[0].perimeter !== null ? entries[0].perimeter : null;
   let rank = 0;

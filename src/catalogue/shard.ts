@@ -8,13 +8,15 @@
 // arrangement exactly once, then ranks and counts with the code a single run uses (assembleCatalogue).
 
 import { UsageError } from '../errors.ts';
-import { type RankOptions, type RankPlan, assembleCatalogue, planRanking, runTasks, unrankedEntries, workerCount } from './rank.ts';
+import {
+  type RankOptions, type RankPlan, assembleCatalogue, candidateKey, planRanking, runTasks, unrankedEntries, workerCount,
+} from './rank.ts';
 import type { Catalogue, CatalogueEntry } from './types.ts';
 
 /** Format name of a part file. */
 export const PART_FORMAT = 'lather-rank-part';
-/** Version of the part format. */
-export const PART_VERSION = 1;
+/** Version of the part format (2: entries of catalogue version 2, several per candidate). */
+export const PART_VERSION = 2;
 
 /** One shard's share of a ranking. */
 export interface RankPart {
@@ -29,7 +31,7 @@ export interface RankPart {
   totals: { tasks: number; candidates: number; enumerated: number; rootings: Catalogue['counts']['rootings'] };
   /** The tasks (arrangements, by position in the plan) of this shard, ascending. */
   tasks: number[];
-  /** Their entries, unranked. */
+  /** Their entries, unranked (one per equilibrium found, or one per candidate without any). */
   entries: CatalogueEntry[];
 }
 
@@ -138,7 +140,9 @@ export function mergeParts(parts: readonly { part: RankPart; source: string }[],
     if (!seen.has(i)) throw new UsageError(`Shard ${i}/${count} is missing when expected all ${count} parts.`);
   }
   const q = first.part.query;
-  const plan = planRanking(q.areas, { ...options, filter: q.filter, budgetSeconds: q.budgetSeconds, seed: q.seed });
+  const plan = planRanking(q.areas, {
+    ...options, filter: q.filter, budgetSeconds: q.budgetSeconds, seed: q.seed, starts: q.starts, unstable: q.unstable,
+  });
   if (JSON.stringify(totalsOf(plan)) !== JSON.stringify(first.part.totals)) {
     throw new UsageError(`Part ${first.source} has totals that this query does not give when expected parts of this ranking.`);
   }
@@ -148,16 +152,23 @@ export function mergeParts(parts: readonly { part: RankPart; source: string }[],
     if (JSON.stringify(part.tasks) !== JSON.stringify(expected[part.shard.index - 1])) {
       throw new UsageError(`Part ${source} holds other arrangements than shard ${part.shard.index}/${count} when expected the shard's own.`);
     }
-    // each task's entries: every candidate of an exhaustive task, at most the cap of a searched one
-    const perTask = new Map<string, number>();
-    for (const e of part.entries) perTask.set(e.code, (perTask.get(e.code) ?? 0) + 1);
+    // each task's candidates (an entry per equilibrium, or one failure): every candidate of an
+    // exhaustive task, at most the cap of a searched one
+    const perTask = new Map<string, Set<string>>();
+    const perCode = new Map<string, number>();
+    for (const e of part.entries) {
+      perCode.set(e.code, (perCode.get(e.code) ?? 0) + 1);
+      const seen = perTask.get(e.code) ?? new Set<string>();
+      seen.add(candidateKey(e));
+      perTask.set(e.code, seen);
+    }
     let held = 0;
     for (const k of part.tasks) {
-      const got = perTask.get(plan.tasks[k].code) ?? 0;
-      held += got;
+      const got = perTask.get(plan.tasks[k].code)?.size ?? 0;
+      held += perCode.get(plan.tasks[k].code) ?? 0;
       const all = plan.tasks[k].mode === 'all';
       if (all ? got !== plan.work[k] : got < 1 || got > plan.work[k]) {
-        throw new UsageError(`Part ${source} has ${got} entries of ${plan.planned[k].id} when expected ${all ? '' : 'at most '}${plan.work[k]}.`);
+        throw new UsageError(`Part ${source} has ${got} candidates of ${plan.planned[k].id} when expected ${all ? '' : 'at most '}${plan.work[k]}.`);
       }
     }
     if (held !== part.entries.length) throw new UsageError(`Part ${source} has entries of arrangements outside its shard when expected only its own.`);

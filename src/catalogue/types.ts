@@ -3,11 +3,18 @@
 
 import type { ArrangementFilter } from './filter.ts';
 import type { Certificate } from '../solver/certificate.ts';
+import type { LensRange } from '../solver/equilibria.ts';
 
 /** Format name written into every catalogue file. */
 export const CATALOGUE_FORMAT = 'lather-catalogue';
-/** Version of the catalogue format this release reads and writes. */
-export const CATALOGUE_VERSION = 1;
+/**
+ * Version of the catalogue format this release writes. Version 2 lists one entry per equilibrium found
+ * (a candidate may have several) and records the search (starts, saddles); version 1 files are still
+ * read (format.ts upgrades them in memory).
+ */
+export const CATALOGUE_VERSION = 2;
+/** The versions the reader accepts. */
+export const CATALOGUE_VERSIONS_READ: readonly number[] = [1, 2];
 /** Significant digits of every float written (but the query's); the solver itself never rounds. */
 export const WRITE_DIGITS = 12;
 
@@ -39,8 +46,12 @@ export interface CatalogueQuery {
   filter: ArrangementFilter;
   /** Work budget in seconds that decided between exhaustive ranking and search. */
   budgetSeconds: number;
-  /** Seed of the search's random starts (used only when not exhaustive). */
+  /** Seed of the search's random starts and of each candidate's perturbed first drawings. */
   seed: number;
+  /** First drawings tried per candidate (solver/equilibria.ts). Version 1 files: 1. */
+  starts: number;
+  /** Whether saddles (index >= 1) were searched for (`--unstable`). Version 1 files: false. */
+  unstable: boolean;
 }
 
 /** How much was done. */
@@ -51,16 +62,17 @@ export interface CatalogueCounts {
   arrangements: number;
   /** Candidates (arrangement, assignment up to symmetry) among the kept arrangements. */
   candidates: number;
-  /** Candidates relaxed. */
+  /** Candidates relaxed (each from `query.starts` first drawings). */
   tried: number;
   /** Candidates not relaxed (only when not exhaustive). */
   skipped: number;
   /** Whether every candidate was relaxed. */
   exhaustive: boolean;
-  /** Certified equilibria, and those of index 0 among them. */
+  /** Certified equilibria (entries of status 'ok'): those of index 0, and saddles (index >= 1). */
   equilibria: number;
   stable: number;
-  /** Failures by kind. */
+  saddles: number;
+  /** Candidates with no certified equilibrium, by the kind of failure of their first start. */
   failures: Record<string, number>;
   /** Rooting identity over every enumerated arrangement: sum of 4E/|Aut(M,f)| and (n+1) A000309(n-1). */
   rootings: { sum: string; expected: string };
@@ -69,7 +81,14 @@ export interface CatalogueCounts {
 /** The certificate of an entry: the relaxer's own (solver/certificate.ts). */
 export type EntryCertificate = Certificate;
 
-/** One candidate: an arrangement with its areas, relaxed. */
+/** Where the lens of a family can slide (solver/equilibria.ts LensRange), as written. */
+export type EntryFamily = LensRange;
+
+/**
+ * One certified equilibrium of a candidate (an arrangement with its areas), or the one entry of a
+ * candidate that has none. A candidate with several equilibria has several entries, each with the
+ * candidate's fields (id, code, sides, assignment, cellAreas, tried) and its own.
+ */
 export interface CatalogueEntry {
   /** 1-based rank among certified equilibria by perimeter; null for failures. */
   rank: number | null;
@@ -105,6 +124,12 @@ export interface CatalogueEntry {
   becomes: { code: string; id: string } | null;
   /** For a cell collapse: the cell. */
   collapsingCell: number | null;
+  /** Starts that reached this equilibrium (0: found by the root finder alone); null for failures. */
+  reached: number | null;
+  /** First drawings tried for the candidate (the same on all its entries). */
+  tried: number;
+  /** For a member of a lens family: where its lens can slide; else null. */
+  family: EntryFamily | null;
 }
 
 /** A ranking catalogue. */
@@ -118,6 +143,9 @@ export interface Catalogue {
   compact?: true;
   query: CatalogueQuery;
   counts: CatalogueCounts;
-  /** Certified equilibria by rank, then failures by code and assignment. */
+  /**
+   * Certified equilibria by rank (perimeter; stable and saddles together, rank 1 stable), then the
+   * candidates without one by code and assignment.
+   */
   entries: CatalogueEntry[];
 }

@@ -29,36 +29,74 @@ function stabilityText(e: CatalogueEntry): string {
   return e.zeroModes ? `${e.index} (+${e.zeroModes} zero)` : String(e.index);
 }
 
-function failureText(e: CatalogueEntry): string {
-  if (e.status === 'wall-collapse') {
-    const to = e.becomes === null ? 'no admissible T1 neighbour' : `T1 to ${e.becomes.id}`;
-    return `wall-collapse (wall ${e.collapsingWall}; ${to})`;
-  }
-  if (e.status === 'cell-collapse') return `cell-collapse (cell ${e.collapsingCell})`;
-  return e.status;
+/** "1 start", "3 starts". */
+export function startsText(k: number): string {
+  return `${k} start${k === 1 ? '' : 's'}`;
 }
 
-/** Table lines: the ranked equilibria (at most `top`), then failures (at most `top`) with their kind. */
+/** Where a lens family's lens can slide, e.g. "lens 2 slides 0.12-0.88 of walls 3+5 (at 0.5)". */
+export function familyText(family: NonNullable<CatalogueEntry['family']>): string {
+  const share = (x: number) => formatValue(x, 3);
+  return `lens ${family.cell} slides ${share(family.from)}-${share(family.to)} of walls ${family.walls[0]}+${family.walls[1]} (at ${share(family.at)})`;
+}
+
+/** The status column of a certified entry: "ok" or "saddle", and its lens family where it has one. */
+function equilibriumText(e: CatalogueEntry): string {
+  const kind = e.index === 0 ? 'ok' : `saddle (index ${e.index})`;
+  return e.family === null ? kind : `${kind}, ${familyText(e.family)}`;
+}
+
+/**
+ * What a candidate without an equilibrium says, with what was tried: e.g. "wall-collapse: no equilibrium
+ * from 3 starts; the flow collapses wall 7 (T1 to 5.33)". A solver that did not converge says nothing
+ * about existence.
+ */
+export function failureText(e: Pick<CatalogueEntry, 'status' | 'collapsingWall' | 'collapsingCell' | 'becomes' | 'tried'>): string {
+  const from = startsText(e.tried);
+  if (e.status === 'no-convergence') return `no-convergence: the solver did not converge from ${from} (existence unknown)`;
+  let how: string;
+  if (e.status === 'wall-collapse') {
+    const to = e.becomes === null ? 'no admissible T1 neighbour' : `T1 to ${e.becomes.id}`;
+    how = `the flow collapses wall ${e.collapsingWall} (${to})`;
+  } else if (e.status === 'cell-collapse') how = `the flow collapses cell ${e.collapsingCell}`;
+  else if (e.status === 'walls-cross') how = 'the walls cross';
+  else how = `the branch folds back`;
+  return `${e.status}: no equilibrium from ${from}; ${how}`;
+}
+
+/**
+ * Table lines: the ranked equilibria (at most `top`; a saddle says so in its status, with its index),
+ * then failures (at most `top`) with what was tried. A column of the starts that reached each
+ * equilibrium out of those tried appears when more than one start was tried per candidate.
+ */
 export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): string[] {
   const lines: string[] = [];
   const k = c.counts;
-  const n = c.query.areas.length;
+  const q = c.query;
+  const n = q.areas.length;
+  const search = q.starts > 1 || q.unstable ? `, ${startsText(q.starts)} each${q.unstable ? ', saddles searched' : ''}` : '';
   lines.push(
-    `${n} cells, areas ${c.query.areas.join(', ')}: ${k.arrangements} arrangements` +
+    `${n} cells, areas ${q.areas.join(', ')}: ${k.arrangements} arrangements` +
       (k.arrangements !== k.enumerated ? ` (of ${k.enumerated}, filtered)` : '') +
-      `, ${k.candidates} candidates, ${k.tried} relaxed` +
+      `, ${k.candidates} candidates, ${k.tried} relaxed${search}` +
       (k.exhaustive ? ' (exhaustive)' : ` (NOT exhaustive: local search within the budget, ${k.skipped} candidates skipped)`),
   );
   const kinds = Object.entries(k.failures).map(([kind, v]) => `${v} ${kind}`).join(', ');
-  lines.push(`${k.equilibria} certified equilibria (${k.stable} stable), ${k.tried - k.equilibria} failures${kinds ? ` (${kinds})` : ''}`);
+  const failed = Object.values(k.failures).reduce((p, v) => p + v, 0);
+  const saddles = k.saddles > 0 || q.unstable ? `, ${k.saddles} saddle${k.saddles === 1 ? '' : 's'}` : '';
+  lines.push(`${k.equilibria} certified equilibria (${k.stable} stable${saddles}), ${failed} failures${kinds ? ` (${kinds})` : ''}`);
   lines.push('');
+  const withStarts = q.starts > 1;
   const ranked = c.entries.filter((e) => e.rank !== null && (!stableOnly || e.index === 0));
-  const head = ['rank', 'perimeter', 'gap %', 'id', 'sides', 'areas by cell', 'index', 'status'];
+  const head = ['rank', 'perimeter', 'gap %', 'id', 'sides', 'areas by cell', 'index', ...(withStarts ? ['reached'] : []), 'status'];
   const rows: string[][] = ranked.slice(0, top).map((e) => [
-    String(e.rank), tableNumber(e.perimeter!), e.gapPercent!.toFixed(3), e.id, e.sides.join(''), cellAreasText(e), stabilityText(e), e.status,
+    String(e.rank), tableNumber(e.perimeter!), e.gapPercent!.toFixed(3), e.id, e.sides.join(''), cellAreasText(e), stabilityText(e),
+    ...(withStarts ? [`${e.reached}/${e.tried}`] : []), equilibriumText(e),
   ]);
   const failures = c.entries.filter((e) => e.rank === null);
-  const failRows: string[][] = stableOnly ? [] : failures.slice(0, top).map((e) => ['-', '-', '-', e.id, e.sides.join(''), cellAreasText(e), '-', failureText(e)]);
+  const failRows: string[][] = stableOnly ? [] : failures.slice(0, top).map((e) => [
+    '-', '-', '-', e.id, e.sides.join(''), cellAreasText(e), '-', ...(withStarts ? [`0/${e.tried}`] : []), failureText(e),
+  ]);
   const all = [head, ...rows, ...failRows];
   const widths = head.map((_, j) => Math.max(...all.map((r) => r[j].length)));
   const line = (r: string[]) => r.map((cell, j) => (j <= 2 ? cell.padStart(widths[j]) : cell.padEnd(widths[j]))).join('  ').trimEnd();

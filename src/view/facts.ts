@@ -29,10 +29,17 @@ export function shortestWallOf(cluster: Cluster, coords: readonly number[], bulg
   return best === -1 ? null : best;
 }
 
-/** The facts of every entry of a catalogue, in its order. Keys are ids, with the assignment where an id repeats. */
+/**
+ * The facts of every entry of a catalogue, in its order. Keys are ids, with the assignment where an id
+ * repeats, and the rank where a candidate has several equilibria (a candidate's failure is its only entry).
+ */
 export function entryFacts(entries: readonly CatalogueEntry[]): EntryFacts[] {
   const seen = new Map<string, number>();
-  for (const e of entries) seen.set(e.id || e.code, (seen.get(e.id || e.code) ?? 0) + 1);
+  const count = (name: string): void => void seen.set(name, (seen.get(name) ?? 0) + 1);
+  for (const e of entries) {
+    count(e.id || e.code);
+    count(`${e.id || e.code}/${e.assignment.join('.')}`);
+  }
   const clusters = new Map<string, Cluster>();
   return entries.map((entry) => {
     let cluster = clusters.get(entry.code);
@@ -41,7 +48,8 @@ export function entryFacts(entries: readonly CatalogueEntry[]): EntryFacts[] {
       clusters.set(entry.code, cluster);
     }
     const name = entry.id || entry.code;
-    const key = seen.get(name) === 1 ? name : `${name}/${entry.assignment.join('.')}`;
+    const candidate = `${name}/${entry.assignment.join('.')}`;
+    const key = seen.get(name) === 1 ? name : seen.get(candidate) === 1 ? candidate : `${candidate}/${entry.rank}`;
     const shortestWall = entry.geometry === null ? null : shortestWallOf(cluster, entry.geometry.coords, entry.geometry.bulges);
     let t1: string | null = entry.becomes?.code ?? null;
     if (shortestWall !== null) t1 = wallSwapCode(cluster, shortestWall);

@@ -10,7 +10,8 @@ describe('readCatalogue', () => {
     const data = JSON.parse(good);
     expect(() => readCatalogue('{"format": "lather-catalogue", "vers')).toThrow(CatalogueFormatError);
     expect(() => readCatalogue(JSON.stringify({ ...data, format: 'something-else' }))).toThrow(CatalogueFormatError);
-    expect(() => readCatalogue(JSON.stringify({ ...data, version: 2 }))).toThrow(/Got v2 catalogue in catalogue when expected v1/);
+    // version 2 since the catalogue lists every equilibrium found (issue 11); version 1 is still read
+    expect(() => readCatalogue(JSON.stringify({ ...data, version: 3 }))).toThrow(/Got v3 catalogue in catalogue when expected v1 or v2/);
     expect(() => readCatalogue(JSON.stringify({ ...data, entries: [{ ...data.entries[0], perimeter: 'long' }] }))).toThrow(CatalogueFormatError);
     expect(() => readCatalogue(JSON.stringify({ ...data, counts: { ...data.counts, tried: -1 } }))).toThrow(CatalogueFormatError);
     expect(() => readCatalogue(good)).not.toThrow();
