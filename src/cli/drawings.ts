@@ -20,7 +20,10 @@ export function checkSheetTop(top: number, topGiven: boolean, sheet: string | un
   }
 }
 
-/** A contact sheet of catalogue entries with geometry, captioned with rank, id, perimeter and index. */
+/**
+ * A contact sheet of catalogue entries with geometry, captioned with rank, id, perimeter and index; a
+ * saddle (index >= 1) is marked as such (render/sheet.ts SheetItem.saddle).
+ */
 export function entriesSheet(entries: CatalogueEntry[], title: string): string {
   const items: SheetItem[] = [];
   for (const e of entries) {
@@ -28,7 +31,7 @@ export function entriesSheet(entries: CatalogueEntry[], title: string): string {
     if (drawing === null) continue;
     items.push({
       drawing, rank: e.rank ?? undefined, id: e.id, perimeter: e.perimeter ?? undefined,
-      note: e.index === null ? undefined : `index ${e.index}`,
+      note: e.index === null ? undefined : `index ${e.index}`, saddle: e.index !== null && e.index > 0,
     });
   }
   return renderContactSheet(items, { title });

@@ -5,6 +5,7 @@ import { type Command, InvalidArgumentError } from 'commander';
 import { type RankOptions, rankAreas, defaultWorkers, RANK_LIMIT, WORKER_LIMIT } from '../catalogue/rank.ts';
 import { rankShard, writePart } from '../catalogue/shard.ts';
 import { UsageError } from '../errors.ts';
+import { DEFAULT_STARTS } from '../solver/equilibria.ts';
 import { packageInfo } from '../version.ts';
 import { writeCatalogue } from '../catalogue/format.ts';
 import { areasFrom, parseAreas } from './areas.ts';
@@ -112,7 +113,9 @@ export function addRankCommand(program: Command): void {
     .option('--budget <seconds>', 'work allowed before switching from exhaustive ranking to search', parseSeconds('Budget'), 60)
     .option('--workers <n>', 'worker threads (default: the cores available)', parseWorkers)
     .option('--force-workers', `allow --workers above the cores available (up to ${WORKER_LIMIT})`)
-    .option('--seed <n>', 'seed of the search starts (when not exhaustive)', wholeNumber(0, undefined, 'Seed'), 1)
+    .option('--seed <n>', 'seed of the search starts (when not exhaustive) and of the perturbed first drawings', wholeNumber(0, undefined, 'Seed'), 1)
+    .option('--starts <k>', `first drawings tried per candidate (barycentric, construction path, then seeded perturbations; default ${DEFAULT_STARTS})`, wholeNumber(1, undefined, 'Starts'))
+    .option('--unstable', 'also look for saddles (index >= 1) and list them')
     .option('--large', `allow more than ${RANK_LIMIT} cells`)
     .option('--out <file.json>', 'write the catalogue (whole or not at all)')
     .option('--sheet <file.svg>', `write a contact sheet of the top drawings (at most ${SHEET_LIMIT})`)
@@ -136,7 +139,7 @@ export function addRankCommand(program: Command): void {
           }
         }
         await rankPart(areas, opts.shard === 'slurm' ? slurmShard(process.env) : opts.shard, {
-          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large,
+          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable),
         }, opts);
         return;
       }
@@ -147,7 +150,7 @@ export function addRankCommand(program: Command): void {
       const catalogue = await withRunFiles([], declare, async ({ out, sheet }, files) => {
         let progress: Progress | null = null;
         const catalogue = await rankAreas(areas, {
-          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large,
+          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable),
           onProgress: (done, total) => {
             progress ??= startProgress('relaxing', total);
             progress.update(done);

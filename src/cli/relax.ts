@@ -1,18 +1,20 @@
-// cli stage: `lather relax <id-or-code>`, the equilibrium of one arrangement at given areas.
+// cli stage: `lather relax <id-or-code>`, every equilibrium of one arrangement at given areas that the
+// search finds (solver/equilibria.ts), the first in full.
 
 import { type Command } from 'commander';
 import { arrangementIds, resolveArrangement } from '../maps/resolve.ts';
 import { summarizeCluster } from '../maps/describe.ts';
 import { wallSwapCode } from '../maps/t1.ts';
 import { type Cluster } from '../maps/cluster.ts';
-import { relax } from '../solver/newton.ts';
+import { DEFAULT_STARTS, type EquilibriumSearch, findEquilibria } from '../solver/equilibria.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import { renderClusterSvg } from '../render/svg.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
 import { withRunFiles, writeOut } from './output.ts';
 import { equilibriumDrawing } from './drawings.ts';
-import { tableNumber } from './table.ts';
+import { familyText, startsText, tableNumber } from './table.ts';
+import { wholeNumber } from './parse.ts';
 import { cliStreams } from './streams.ts';
 
 /** The areas for a cluster: the given list (checked against the cell count) or equal areas of 1. */
@@ -33,24 +35,41 @@ function e(x: number): string {
   return x === 0 ? '0' : x.toExponential(1);
 }
 
-/** The readable summary of one answer. */
-export function relaxSummary(label: string, cluster: Cluster, areas: Float64Array, eq: Equilibrium): string[] {
+/** The answer relax shows in full: the search's first equilibrium (its least stable one), else the failure. */
+export function firstAnswer(search: EquilibriumSearch): Equilibrium {
+  return search.failure ?? search.found[0].equilibrium;
+}
+
+/**
+ * The readable summary of a search: its first answer in full (status, perimeter, cells, certificate),
+ * then, when it found more than one, every equilibrium found with its index, zero modes, lens range
+ * and the starts that reached it.
+ */
+export function relaxSummary(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch): string[] {
+  const eq = firstAnswer(search);
   const s = summarizeCluster(cluster);
   const lines = [`arrangement ${label}  code ${cluster.code}  (${cluster.cells} cells, sides ${s.sides.join(' ')}, outside ${s.outsideSides})`];
+  const tried = startsText(search.tried);
   if (eq.status === 'ok') {
-    const stable = eq.index === 0 ? 'stable in its arrangement' : `${eq.index} unstable direction${eq.index === 1 ? '' : 's'}`;
-    lines.push(`status ok: certified equilibrium, index ${eq.index} (${stable}), ${eq.zeroModes} zero mode${eq.zeroModes === 1 ? '' : 's'}, ${eq.iterations} Newton iterations`);
+    const first = search.found[0];
+    const stable = eq.index === 0 ? 'stable in its arrangement' : `a saddle, ${eq.index} unstable direction${eq.index === 1 ? '' : 's'}`;
+    lines.push(`status ok: certified equilibrium, index ${eq.index} (${stable}), ${eq.zeroModes} zero mode${eq.zeroModes === 1 ? '' : 's'}, ${search.iterations} Newton iterations`);
     lines.push(`perimeter ${tableNumber(eq.perimeter, 12)}`);
+    if (first.family !== null) lines.push(`a lens family: ${familyText(first.family)}`);
+    if (search.tried > 1 || search.found.length > 1) lines.push(`reached by ${first.reached} of ${tried}; ${search.found.length} equilibri${search.found.length === 1 ? 'um' : 'a'} found`);
+  } else if (eq.status === 'no-convergence') {
+    // no convergence is no statement about existence
+    lines.push(`status no-convergence: the solver did not converge (existence unknown) from ${tried}; ${search.iterations} Newton iterations`);
   } else {
-    let why: string = eq.status;
+    let how: string;
     if (eq.status === 'wall-collapse') {
       const to = t1Neighbour(cluster, eq);
       const id = to !== null && cluster.cells <= 8 ? arrangementIds(cluster.cells).get(to) : undefined;
-      why += `: wall ${eq.collapsingWall} shrinks to zero; its T1 swap gives ${to === null ? 'no admissible arrangement' : id ? `${id} (${to})` : to}`;
-    } else if (eq.status === 'cell-collapse') why += `: cell ${eq.collapsingCell} shrinks away from the others`;
-    // no convergence is no statement about existence
-    if (eq.status === 'no-convergence') lines.push(`status ${why}: the solver did not converge (existence unknown); ${eq.iterations} Newton iterations`);
-    else lines.push(`status ${why} (no equilibrium of this arrangement at these areas; ${eq.iterations} Newton iterations)`);
+      how = `the flow collapses wall ${eq.collapsingWall}; its T1 swap gives ${to === null ? 'no admissible arrangement' : id ? `${id} (${to})` : to}`;
+    } else if (eq.status === 'cell-collapse') how = `the flow collapses cell ${eq.collapsingCell} (it shrinks away from the others)`;
+    else if (eq.status === 'walls-cross') how = 'the walls cross';
+    else how = 'the branch folds back';
+    lines.push(`status ${eq.status}: no equilibrium from ${tried}; ${how}; ${search.iterations} Newton iterations`);
   }
   lines.push('');
   lines.push('cell  target area  achieved area  pressure  sides');
@@ -63,17 +82,44 @@ export function relaxSummary(label: string, cluster: Cluster, areas: Float64Arra
     `certificate: area ${e(c.areaResidual)}, tangent sums ${e(c.tangentResidual)}, Laplace-Young ${e(c.curvatureResidual)}, ` +
       `shortest wall ${tableNumber(c.minWallLength, 4)}, smallest cell ${tableNumber(c.minCellArea, 4)}, crossings ${c.crossings}, misordered junctions ${c.misorderedJunctions}`,
   );
+  if (search.found.length > 1) lines.push('', ...foundTable(search, tried));
   return lines;
 }
 
-/** The whole answer as plain JSON data. */
-export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, eq: Equilibrium): object {
+/** Every equilibrium a search found: perimeter, index, zero modes, starts that reached it, lens range. */
+function foundTable(search: EquilibriumSearch, tried: string): string[] {
+  const head = ['#', 'perimeter', 'index', 'zero modes', 'reached', 'kind'];
+  const rows = search.found.map((f, i) => {
+    const q = f.equilibrium;
+    const kind = q.index === 0 ? 'stable' : `saddle (index ${q.index})`;
+    return [String(i + 1), tableNumber(q.perimeter, 12), String(q.index), String(q.zeroModes), String(f.reached),
+      f.family === null ? kind : `${kind}, ${familyText(f.family)}`];
+  });
+  const widths = head.map((_, j) => Math.max(...[head, ...rows].map((r) => r[j].length)));
+  const line = (r: string[]) => r.map((cell, j) => (j <= 1 ? cell.padStart(widths[j]) : cell.padEnd(widths[j]))).join('  ').trimEnd();
+  return [`every equilibrium found from ${tried}:`, line(head), ...rows.map(line)];
+}
+
+/** One answer as plain JSON data. */
+function answerJson(cluster: Cluster, eq: Equilibrium): object {
   return {
-    arrangement: label, code: cluster.code, targetAreas: [...areas], status: eq.status, perimeter: eq.perimeter,
+    status: eq.status, perimeter: eq.perimeter,
     pressures: [...eq.pressures], areas: [...eq.areas], coords: [...eq.coords], bulges: [...eq.bulges],
     curvatures: [...eq.curvatures], certificate: eq.certificate, index: eq.index, zeroModes: eq.zeroModes,
     iterations: eq.iterations, restarts: eq.restarts, collapsingWall: eq.collapsingWall,
     collapsingCell: eq.collapsingCell, becomes: t1Neighbour(cluster, eq),
+  };
+}
+
+/**
+ * The whole search as plain JSON data: the first answer's fields at the top (as relax printed one answer
+ * before it searched), then `tried` and `equilibria`, every equilibrium found with `reached` and `family`.
+ */
+export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch): object {
+  return {
+    arrangement: label, code: cluster.code, targetAreas: [...areas], ...answerJson(cluster, firstAnswer(search)),
+    tried: search.tried,
+    equilibria: search.found.map((f) => ({ ...answerJson(cluster, f.equilibrium), reached: f.reached, family: f.family })),
   };
 }
 
@@ -87,18 +133,20 @@ export function addRelaxCommand(program: Command): void {
     .option('--svg <file>', 'write a drawing of the answer')
     .option('--pressures', 'show pressures in the drawing')
     .option('--junctions', 'mark junctions in the drawing')
+    .option('--starts <k>', `first drawings tried (barycentric, construction path, then seeded perturbations; default ${DEFAULT_STARTS})`, wholeNumber(1, undefined, 'Starts'))
+    .option('--unstable', 'also look for saddles (index >= 1)')
     .action(async (what: string, opts) => {
       for (const option of ['pressures', 'junctions'] as const) {
         if (opts[option] && !opts.svg) throw new UsageError(`Option --${option} given without --svg when expected it only with --svg (it styles the drawing).`);
       }
       const cluster = resolveArrangement(what);
       const areas = areasForCluster(cluster, opts.areas, what);
-      const eq = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {
-        const eq = relax(cluster.map, areas);
-        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, eq, what), { pressures: opts.pressures, junctions: opts.junctions }));
-        return eq;
+      const search = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {
+        const search = findEquilibria(cluster.map, areas, { starts: opts.starts, unstable: Boolean(opts.unstable) });
+        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, firstAnswer(search), what), { pressures: opts.pressures, junctions: opts.junctions }));
+        return search;
       });
-      const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, eq), null, 2) : relaxSummary(what, cluster, areas, eq).join('\n');
+      const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, search), null, 2) : relaxSummary(what, cluster, areas, search).join('\n');
       writeOut(text + '\n');
     });
 }

@@ -44,6 +44,8 @@ export type MarkerShape = (typeof MARKER_SHAPES)[number];
 export const INK = '#222222';
 /** Fill for a place with no certified winner (region maps). */
 export const NO_WINNER_FILL = '#e4e4e4';
+/** Frame of a saddle's tile on a contact sheet (an unstable equilibrium: the orange of SERIES_LINES). */
+export const SADDLE_FRAME = '#bd6614';
 
 /** The fill of cell i (1-based), cycling through `palette`. */
 export function cellFill(i: number, palette: readonly string[] = CELL_FILLS): string {

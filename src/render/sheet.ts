@@ -5,7 +5,7 @@ import { checkDrawing } from './types.ts';
 import type { ClusterStyle } from './cluster-group.ts';
 import { centredPlacement, fitScale, renderClusterGroup } from './cluster-group.ts';
 import { drawingBounds } from './cell-shape.ts';
-import { INK } from './palette.ts';
+import { INK, SADDLE_FRAME } from './palette.ts';
 import { checkDigits, escapeXml, fixed, formatValue } from './format.ts';
 import { UsageError } from '../errors.ts';
 
@@ -20,6 +20,11 @@ export interface SheetItem {
   readonly perimeter?: number;
   /** A short remark after the perimeter, e.g. "index 0". */
   readonly note?: string;
+  /**
+   * An unstable equilibrium (index >= 1): the tile gets a dashed orange frame and a third caption
+   * line "SADDLE". @default false
+   */
+  readonly saddle?: boolean;
 }
 
 /** Options of renderContactSheet. */
@@ -59,6 +64,7 @@ function captionLines(item: SheetItem, digits: number): string[] {
     .filter((part) => part !== '')
     .join('  ');
   if (tail !== '') lines.push(tail);
+  if (item.saddle === true) lines.push('SADDLE (unstable)');
   if (lines.length === 0) {
     if (item.drawing.title !== undefined) lines.push(item.drawing.title);
     if (item.drawing.caption !== undefined) lines.push(item.drawing.caption);
@@ -114,14 +120,18 @@ export function renderContactSheet(items: readonly SheetItem[], options: Contact
     const left = gap + (i % columns) * cellW;
     const top = gap + titleH + Math.floor(i / columns) * cellH;
     const placement = centredPlacement(boxes[i], (options.commonScale ?? true) ? common : fits[i]);
-    out.push(`<g class="tile" data-index="${i}">`);
-    out.push(`<rect x="${n(left)}" y="${n(top)}" width="${n(tilePx)}" height="${n(tilePx + captionH)}" rx="4" fill="none" stroke="#d0d0d0"/>`);
+    // a saddle's tile is framed apart (dashed, thicker, orange), so it is not taken for a stable one
+    const frame = item.saddle === true ? `stroke="${SADDLE_FRAME}" stroke-width="2.5" stroke-dasharray="8 4"` : 'stroke="#d0d0d0"';
+    out.push(`<g class="tile${item.saddle === true ? ' saddle' : ''}" data-index="${i}">`);
+    out.push(`<rect x="${n(left)}" y="${n(top)}" width="${n(tilePx)}" height="${n(tilePx + captionH)}" rx="4" fill="none" ${frame}/>`);
     out.push(`<g transform="translate(${n(left + tilePx / 2)} ${n(top + tilePx / 2)})">`);
     out.push(renderClusterGroup(item.drawing, placement, digits, style));
     out.push('</g>');
     captions[i].forEach((line, k) => {
-      const weight = k === 0 && captions[i].length > 1 ? ' font-weight="bold"' : '';
-      out.push(`<text class="caption" x="${n(left + tilePx / 2)}" y="${n(top + tilePx + (k + 1) * 1.3 * captionPx - 0.2 * captionPx)}" ${font} font-size="${n(captionPx)}"${weight}>${escapeXml(line)}</text>`);
+      const saddleLine = items[i].saddle === true && k === captions[i].length - 1;
+      const weight = (k === 0 && captions[i].length > 1) || saddleLine ? ' font-weight="bold"' : '';
+      const colour = saddleLine ? ` style="fill:${SADDLE_FRAME}"` : '';
+      out.push(`<text class="caption" x="${n(left + tilePx / 2)}" y="${n(top + tilePx + (k + 1) * 1.3 * captionPx - 0.2 * captionPx)}" ${font} font-size="${n(captionPx)}"${weight}${colour}>${escapeXml(line)}</text>`);
     });
     out.push('</g>');
   });

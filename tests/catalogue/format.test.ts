@@ -22,6 +22,7 @@ import { relax } from '../../src/solver/newton.ts';
 import { problemOf } from '../../src/solver/problem.ts';
 import { WALL_STRIDE, perimeterInto } from '../../src/solver/wall-terms.ts';
 import { packageInfo } from '../../src/version.ts';
+import { entryFacts } from '../../src/view/facts.ts';
 import { lather } from '../cli/helpers.ts';
 
 const FIXTURES = new URL('../fixtures/', import.meta.url);
@@ -160,6 +161,14 @@ describe('several equilibria of one candidate', () => {
     expect(merged.counts.equilibria).toBe(single.counts.equilibria + 1);
     expect(merged.counts.tried).toBe(single.counts.tried); // candidates relaxed, not entries
     expect(merged.counts.candidates).toBe(single.counts.candidates);
+    // the viewer keys each entry apart, and `lather view` writes the page
+    const keys = entryFacts(merged.entries).map((f) => f.key);
+    expect(new Set(keys).size).toBe(keys.length);
+    const page = await lather(['view', join(dir, 'family-01.json'), '--out', join(dir, 'family.html')]);
+    expect(page.status, page.stderr).toBe(0);
+    // show prints both members with their lens range
+    const shown = await lather(['show', join(dir, 'family-01.json')]);
+    expect(shown.stdout.match(new RegExp(`ok, lens ${host.cell + 1} slides 0-1 of walls ${host.ka}\\+${host.kb}`, 'g'))).toHaveLength(2);
   });
 
   it('readCatalogue refuses a repeated equilibrium of one candidate, and more starts reaching it than were tried', async () => {

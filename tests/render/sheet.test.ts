@@ -47,6 +47,20 @@ describe('renderContactSheet', () => {
     expect(radius(common)).toBeLessThan(radius(own));
   });
 
+  it('renderContactSheet marks a saddle: its own frame and a caption line saying so; the others unchanged', () => {
+    // issue 11: a sheet may show saddles, marked as such (the geometry here is only a stand-in tile)
+    const plain = renderContactSheet(items(), { columns: 2 });
+    const marked = items();
+    marked[1] = { ...marked[1], note: 'index 1', saddle: true };
+    const svg = renderContactSheet(marked, { columns: 2 });
+    expect(svg.match(/<g class="tile saddle"/g)).toHaveLength(1);
+    expect(svg.match(/<g class="tile"/g)).toHaveLength(3);
+    expect(svg).toMatch(/<g class="tile saddle" data-index="1">\n<rect [^>]*stroke-dasharray="8 4"/);
+    expect(svg).toContain('>SADDLE (unstable)</text>');
+    expect(plain).not.toContain('SADDLE');
+    expect(plain).not.toContain('stroke-dasharray');
+  });
+
   it('renderContactSheet refuses an empty list with a UsageError and bad columns with one too', () => {
     expect(() => renderContactSheet([])).toThrow(UsageError);
     expect(() => renderContactSheet(items(), { columns: 0 })).toThrow(UsageError);

@@ -73,13 +73,29 @@ function stability(entry: CatalogueEntry): string {
   return entry.index === 0 ? '<span class="badge stable">stable</span>' : `<span class="badge saddle">index ${entry.index}</span>`;
 }
 
-/** The verdict of a failure in words. */
-function verdict(entry: { status: string; collapsingWall: number | null; collapsingCell: number | null }, t1: string | null): string {
-  if (entry.status === 'wall-collapse') return `wall ${entry.collapsingWall} shrinks to zero; its T1 swap gives ${codeLink(t1)}`;
-  if (entry.status === 'cell-collapse') return `cell ${entry.collapsingCell} pinches off from the others`;
-  if (entry.status === 'walls-cross') return 'the equations hold but walls cross';
-  if (entry.status === 'no-convergence') return 'the relaxer reached no verdict';
+/** "1 start", "3 starts". */
+function starts(k: number): string {
+  return `${k} start${k === 1 ? '' : 's'}`;
+}
+
+/** The verdict of a failure in words, with what was tried (`tried` is absent for a live relaxation). */
+function verdict(entry: { status: string; collapsingWall: number | null; collapsingCell: number | null; tried?: number }, t1: string | null): string {
+  const from = entry.tried === undefined ? '' : `no equilibrium from ${starts(entry.tried)}: `;
+  if (entry.status === 'wall-collapse') return `${from}wall ${entry.collapsingWall} shrinks to zero; its T1 swap gives ${codeLink(t1)}`;
+  if (entry.status === 'cell-collapse') return `${from}cell ${entry.collapsingCell} pinches off from the others`;
+  if (entry.status === 'walls-cross') return `${from}the equations hold but walls cross`;
+  if (entry.status === 'no-convergence') {
+    return `the relaxer reached no verdict${entry.tried === undefined ? '' : ` from ${starts(entry.tried)}`} (existence unknown)`;
+  }
   return html(entry.status);
+}
+
+/** How the search found a certified entry: the starts that reached it, and its lens family's range. */
+function searchFacts(entry: CatalogueEntry): string {
+  const parts = [`reached by ${entry.reached} of ${starts(entry.tried)}`];
+  const f = entry.family;
+  if (f !== null) parts.push(`a lens family: lens ${f.cell} slides ${num(f.from, 3)} to ${num(f.to, 3)} of walls ${f.walls[0]} and ${f.walls[1]} (at ${num(f.at, 3)})`);
+  return parts.join('; ');
 }
 
 function cardDrawing(row: ViewRow): string {
@@ -101,7 +117,7 @@ function fillCard(card: HTMLElement, row: ViewRow): void {
 <div class="drawing">${cardDrawing(row)}</div>
 <div class="code">${html(entry.code)}</div>
 <dl><dt>perimeter</dt><dd data-perimeter="${entry.perimeter}">${num(entry.perimeter)}</dd><dt>gap</dt><dd>${num(entry.gapPercent, 4)} %</dd>
-<dt>index</dt><dd>${entry.index}, zero modes ${entry.zeroModes}</dd></dl>
+<dt>index</dt><dd>${entry.index}, zero modes ${entry.zeroModes}</dd>${entry.family === null ? '' : `<dt>family</dt><dd>lens ${entry.family.cell}</dd>`}</dl>
 <div class="row">${stability(entry)} ${pick}</div>`;
   } else {
     card.innerHTML = `<div class="head"><span>${html(entry.id)}</span>${stability(entry)}</div>
@@ -253,7 +269,7 @@ function showDetails(): void {
 <p class="mono">${html(entry.code)}</p>
 <p>${facts3}</p>
 ${drawing === null ? '' : `<div class="drawing">${renderClusterSvg(drawing, { sizePx: 300, headings: false, pressures: true })}</div>`}
-<p>${entry.status === 'ok' ? `Perimeter <strong>${num(entry.perimeter, 12)}</strong>, gap ${num(entry.gapPercent, 4)} %, index ${entry.index}, zero modes ${entry.zeroModes}, ` : ''}${entry.iterations} Newton iterations.</p>
+<p>${entry.status === 'ok' ? `Perimeter <strong>${num(entry.perimeter, 12)}</strong>, gap ${num(entry.gapPercent, 4)} %, index ${entry.index}, zero modes ${entry.zeroModes}, ${searchFacts(entry)}, ` : ''}${entry.iterations} Newton iterations.</p>
 ${t1}
 <table><caption>Cells</caption><thead><tr><th>cell</th><th>sides</th><th>area</th><th>pressure</th></tr></thead><tbody>${cells}</tbody></table>
 <table><caption>Certificate${entry.status === 'ok' ? '' : ' (the last state reached)'}</caption><tbody>
