@@ -58,6 +58,14 @@ export interface CandidateResult {
   becomes: string | null;
 }
 
+/**
+ * The answer a search stands for: its first equilibrium (the least stable one when there is one), else
+ * its failure. NOTE: a natural home is solver/equilibria.ts, beside the search.
+ */
+export function searchAnswer(search: EquilibriumSearch): Equilibrium {
+  return search.found.length > 0 ? search.found[0].equilibrium : search.failure!;
+}
+
 /** Relax the candidates of one cluster task, in a deterministic order. */
 export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   const cluster = clusterFromCode(task.code);
@@ -69,7 +77,7 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   const solve = (s: Int32Array, from: Equilibrium | null): CandidateResult => {
     const areas = areasOf(s, task.classes);
     const search = findEquilibria(cluster.map, areas, options, from !== null && warm ? from : null);
-    const eq = search.failure ?? search.found[0].equilibrium;
+    const eq = searchAnswer(search);
     const becomes = eq.status === 'wall-collapse' && eq.collapsingWall !== null ? wallSwapCode(cluster, eq.collapsingWall) : null;
     const result = { code: task.code, assignment: [...s], search, equilibrium: eq, becomes };
     out.push(result);

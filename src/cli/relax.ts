@@ -7,13 +7,15 @@ import { summarizeCluster } from '../maps/describe.ts';
 import { wallSwapCode } from '../maps/t1.ts';
 import { type Cluster } from '../maps/cluster.ts';
 import { DEFAULT_STARTS, type EquilibriumSearch, findEquilibria } from '../solver/equilibria.ts';
+import { searchAnswer } from '../catalogue/evaluate.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import { renderClusterSvg } from '../render/svg.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
 import { withRunFiles, writeOut } from './output.ts';
 import { equilibriumDrawing } from './drawings.ts';
-import { familyText, startsText, tableNumber } from './table.ts';
+import { familyText, tableNumber } from './table.ts';
+import { plural } from '../render/format.ts';
 import { wholeNumber } from './parse.ts';
 import { cliStreams } from './streams.ts';
 
@@ -35,21 +37,16 @@ function e(x: number): string {
   return x === 0 ? '0' : x.toExponential(1);
 }
 
-/** The answer relax shows in full: the search's first equilibrium (its least stable one), else the failure. */
-export function firstAnswer(search: EquilibriumSearch): Equilibrium {
-  return search.failure ?? search.found[0].equilibrium;
-}
-
 /**
  * The readable summary of a search: its first answer in full (status, perimeter, cells, certificate),
  * then, when it found more than one, every equilibrium found with its index, zero modes, lens range
  * and the starts that reached it.
  */
 export function relaxSummary(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch): string[] {
-  const eq = firstAnswer(search);
+  const eq = searchAnswer(search);
   const s = summarizeCluster(cluster);
   const lines = [`arrangement ${label}  code ${cluster.code}  (${cluster.cells} cells, sides ${s.sides.join(' ')}, outside ${s.outsideSides})`];
-  const tried = startsText(search.tried);
+  const tried = plural(search.tried, 'start');
   if (eq.status === 'ok') {
     const first = search.found[0];
     const stable = eq.index === 0 ? 'stable in its arrangement' : `a saddle, ${eq.index} unstable direction${eq.index === 1 ? '' : 's'}`;
@@ -117,7 +114,7 @@ function answerJson(cluster: Cluster, eq: Equilibrium): object {
  */
 export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch): object {
   return {
-    arrangement: label, code: cluster.code, targetAreas: [...areas], ...answerJson(cluster, firstAnswer(search)),
+    arrangement: label, code: cluster.code, targetAreas: [...areas], ...answerJson(cluster, searchAnswer(search)),
     tried: search.tried,
     equilibria: search.found.map((f) => ({ ...answerJson(cluster, f.equilibrium), reached: f.reached, family: f.family })),
   };
@@ -143,7 +140,7 @@ export function addRelaxCommand(program: Command): void {
       const areas = areasForCluster(cluster, opts.areas, what);
       const search = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {
         const search = findEquilibria(cluster.map, areas, { starts: opts.starts, unstable: Boolean(opts.unstable) });
-        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, firstAnswer(search), what), { pressures: opts.pressures, junctions: opts.junctions }));
+        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, searchAnswer(search), what), { pressures: opts.pressures, junctions: opts.junctions }));
         return search;
       });
       const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, search), null, 2) : relaxSummary(what, cluster, areas, search).join('\n');

@@ -7,6 +7,7 @@ import { renderPathPlot, renderRegionMap, type PathSeries, type WinnerBand, type
 import type { RegionArrangement } from '../render/plot.ts';
 import type { ClusterDrawing } from '../render/types.ts';
 import { tableNumber, tableValue } from './table.ts';
+import { plural } from '../render/format.ts';
 
 function num(x: number): string {
   return Number.isFinite(x) ? tableNumber(x) : '-';
@@ -20,10 +21,6 @@ function columns(rows: string[][], right: ReadonlySet<number> = new Set()): stri
 
 function who(c: SweepCandidate): string {
   return `${c.id} ${cellFormulasText(c)}`;
-}
-
-function plural(n: number, word: string): string {
-  return `${n} ${word}${n === 1 ? '' : 's'}`;
 }
 
 function relaxationText(s: PathSweep | RegionSweep): string {

@@ -1,7 +1,7 @@
 // cli stage: the readable table of a catalogue (rank, show), and how every printed table writes numbers.
 
 import type { Catalogue, CatalogueEntry } from '../catalogue/types.ts';
-import { formatValue } from '../render/format.ts';
+import { formatValue, plural } from '../render/format.ts';
 
 /** Significant digits of perimeters and parameter values in printed tables (catalogue files keep 12). */
 export const TABLE_DIGITS = 10;
@@ -29,11 +29,6 @@ function stabilityText(e: CatalogueEntry): string {
   return e.zeroModes ? `${e.index} (+${e.zeroModes} zero)` : String(e.index);
 }
 
-/** "1 start", "3 starts". */
-export function startsText(k: number): string {
-  return `${k} start${k === 1 ? '' : 's'}`;
-}
-
 /** Where a lens family's lens can slide, e.g. "lens 2 slides 0.12-0.88 of walls 3+5 (at 0.5)". */
 export function familyText(family: NonNullable<CatalogueEntry['family']>): string {
   const share = (x: number) => formatValue(x, 3);
@@ -52,7 +47,7 @@ function equilibriumText(e: CatalogueEntry): string {
  * about existence.
  */
 export function failureText(e: Pick<CatalogueEntry, 'status' | 'collapsingWall' | 'collapsingCell' | 'becomes' | 'tried'>): string {
-  const from = startsText(e.tried);
+  const from = plural(e.tried, 'start');
   if (e.status === 'no-convergence') return `no-convergence: the solver did not converge from ${from} (existence unknown)`;
   let how: string;
   if (e.status === 'wall-collapse') {
@@ -74,7 +69,7 @@ export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): 
   const k = c.counts;
   const q = c.query;
   const n = q.areas.length;
-  const search = q.starts > 1 || q.unstable ? `, ${startsText(q.starts)} each${q.unstable ? ', saddles searched' : ''}` : '';
+  const search = q.starts > 1 || q.unstable ? `, ${plural(q.starts, 'start')} each${q.unstable ? ', saddles searched' : ''}` : '';
   lines.push(
     `${n} cells, areas ${q.areas.join(', ')}: ${k.arrangements} arrangements` +
       (k.arrangements !== k.enumerated ? ` (of ${k.enumerated}, filtered)` : '') +
@@ -83,7 +78,7 @@ export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): 
   );
   const kinds = Object.entries(k.failures).map(([kind, v]) => `${v} ${kind}`).join(', ');
   const failed = Object.values(k.failures).reduce((p, v) => p + v, 0);
-  const saddles = k.saddles > 0 || q.unstable ? `, ${k.saddles} saddle${k.saddles === 1 ? '' : 's'}` : '';
+  const saddles = k.saddles > 0 || q.unstable ? `, ${plural(k.saddles, 'saddle')}` : '';
   lines.push(`${k.equilibria} certified equilibria (${k.stable} stable${saddles}), ${failed} failures${kinds ? ` (${kinds})` : ''}`);
   lines.push('');
   const withStarts = q.starts > 1;

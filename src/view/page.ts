@@ -3,7 +3,7 @@
 // no reference to anything outside the file.
 
 import type { Catalogue } from '../catalogue/types.ts';
-import { escapeXml } from '../render/format.ts';
+import { escapeXml, plural } from '../render/format.ts';
 import { CELL_FILLS, INK } from '../render/palette.ts';
 import { entryFacts } from './facts.ts';
 import type { EntryFacts } from './query.ts';
@@ -65,7 +65,7 @@ export function renderViewPage(catalogue: Catalogue, script: string, source: str
   const failures = Object.values(counts.failures).reduce((a, b) => a + b, 0);
   const palette = CELL_FILLS.map((c, i) => `--cell-${i + 1}:${c};`).join('');
   const summary = `Areas ${query.areas.join(', ')}: ${counts.candidates} candidate${counts.candidates === 1 ? '' : 's'}` +
-    ` in ${counts.arrangements} arrangement${counts.arrangements === 1 ? '' : 's'}, ${counts.equilibria} certified (${counts.stable} stable), ${failures} without an equilibrium` +
+    ` in ${counts.arrangements} arrangement${counts.arrangements === 1 ? '' : 's'}, ${counts.equilibria} certified (${counts.stable} stable${counts.saddles > 0 ? `, ${plural(counts.saddles, 'saddle')}` : ''}), ${failures} without an equilibrium` +
     (counts.exhaustive ? '.' : `; ${counts.skipped} not tried.`);
   return `<!doctype html>
 <html lang="en">

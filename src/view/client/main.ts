@@ -9,7 +9,7 @@ import type { Equilibrium } from '../../solver/result.ts';
 import { entryDrawing, equilibriumDrawing } from '../../render/entry.ts';
 import { renderClusterSvg } from '../../render/svg.ts';
 import { renderContactSheet, type SheetItem } from '../../render/sheet.ts';
-import { escapeXml, formatValue } from '../../render/format.ts';
+import { escapeXml, formatValue, plural } from '../../render/format.ts';
 import { wallSwapCode } from '../../maps/t1.ts';
 import { DATA_ELEMENT_ID, type ViewData } from '../page.ts';
 import { DEFAULT_VIEW, type ViewRow, type ViewState, passesView, readFragment, viewRows, writeFragment } from '../query.ts';
@@ -73,26 +73,21 @@ function stability(entry: CatalogueEntry): string {
   return entry.index === 0 ? '<span class="badge stable">stable</span>' : `<span class="badge saddle">index ${entry.index}</span>`;
 }
 
-/** "1 start", "3 starts". */
-function starts(k: number): string {
-  return `${k} start${k === 1 ? '' : 's'}`;
-}
-
 /** The verdict of a failure in words, with what was tried (`tried` is absent for a live relaxation). */
 function verdict(entry: { status: string; collapsingWall: number | null; collapsingCell: number | null; tried?: number }, t1: string | null): string {
-  const from = entry.tried === undefined ? '' : `no equilibrium from ${starts(entry.tried)}: `;
+  const from = entry.tried === undefined ? '' : `no equilibrium from ${plural(entry.tried, 'start')}: `;
   if (entry.status === 'wall-collapse') return `${from}wall ${entry.collapsingWall} shrinks to zero; its T1 swap gives ${codeLink(t1)}`;
   if (entry.status === 'cell-collapse') return `${from}cell ${entry.collapsingCell} pinches off from the others`;
   if (entry.status === 'walls-cross') return `${from}the equations hold but walls cross`;
   if (entry.status === 'no-convergence') {
-    return `the relaxer reached no verdict${entry.tried === undefined ? '' : ` from ${starts(entry.tried)}`} (existence unknown)`;
+    return `the relaxer reached no verdict${entry.tried === undefined ? '' : ` from ${plural(entry.tried, 'start')}`} (existence unknown)`;
   }
   return html(entry.status);
 }
 
 /** How the search found a certified entry: the starts that reached it, and its lens family's range. */
 function searchFacts(entry: CatalogueEntry): string {
-  const parts = [`reached by ${entry.reached} of ${starts(entry.tried)}`];
+  const parts = [`reached by ${entry.reached} of ${plural(entry.tried, 'start')}`];
   const f = entry.family;
   if (f !== null) parts.push(`a lens family: lens ${f.cell} slides ${num(f.from, 3)} to ${num(f.to, 3)} of walls ${f.walls[0]} and ${f.walls[1]} (at ${num(f.at, 3)})`);
   return parts.join('; ');
