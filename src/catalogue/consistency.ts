@@ -156,7 +156,7 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
         best ??= p;
         previous = placed;
         const gap = (100 * (p - best)) / best;
-        if (!(Math.abs(entry.gapPercent! - gap) <= 1e-8 * (1 + gap))) {
+        if (!(Math.abs(entry.gapPercent! - gap) <= 1e-8 * (1 + Math.abs(gap)))) {
           refuse(`gapPercent is ${entry.gapPercent}`, `${gap.toPrecision(6)} (100 (perimeter - best) / best, best ${best})`);
         }
       } else {

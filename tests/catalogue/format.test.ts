@@ -11,7 +11,8 @@ import { join } from 'node:path';
 import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
 import { CATALOGUE_SCHEMA_URL, readCatalogue, writeCatalogue } from '../../src/catalogue/format.ts';
-import { rankAreas } from '../../src/catalogue/rank.ts';
+import { assembleCatalogue, planRanking, rankAreas, unrankedEntries } from '../../src/catalogue/rank.ts';
+import { evaluateCluster } from '../../src/catalogue/evaluate.ts';
 import { readPart, rankShard, writePart } from '../../src/catalogue/shard.ts';
 import type { Catalogue, CatalogueEntry } from '../../src/catalogue/types.ts';
 import { CatalogueFormatError } from '../../src/errors.ts';
@@ -187,5 +188,32 @@ describe('several equilibria of one candidate', () => {
     const reached = structuredClone(c);
     reached.entries[0].reached = 2;
     expect(() => readCatalogue(JSON.stringify(reached), 'reached.json')).toThrow(/reached by 2 starts when expected at most the 1 tried/);
+  });
+});
+
+describe('rank 1 is stable', () => {
+  it('a saddle below every stable equilibrium is ranked after the least stable one, and a file ranking it first is refused', () => {
+    // the least perimeter over all arrangements is a minimiser, hence stable (index 0: the definition
+    // of the index); a saddle found below it means the search missed that minimiser, and rank 1 stays
+    // the ranking's answer. Here the triple bubble's entry is relabelled index 1 to stand for such a saddle.
+    const plan = planRanking([1, 1, 1]);
+    const entries = plan.tasks.flatMap((t, k) => unrankedEntries(plan, k, evaluateCluster(t)));
+    const least = entries.reduce((a, b) => (b.perimeter !== null && b.perimeter < (a.perimeter ?? Infinity) ? b : a));
+    least.index = 1;
+    const c = assembleCatalogue(plan, entries);
+    expect(c.entries[0].index).toBe(0);
+    expect(c.entries[1]).toMatchObject({ code: least.code, index: 1, rank: 2 });
+    expect(c.entries[1].gapPercent!).toBeLessThan(0);
+    expect(c.counts).toMatchObject({ stable: c.counts.equilibria - 1, saddles: 1 });
+    const text = writeCatalogue(c);
+    expect(readCatalogue(text).entries[1].index).toBe(1);
+    // the saddle ranked first, before a stable equilibrium: refused
+    const data = JSON.parse(text);
+    [data.entries[0], data.entries[1]] = [data.entries[1], data.entries[0]];
+    data.entries[0].rank = 1;
+    data.entries[1].rank = 2;
+    data.entries[0].gapPercent = 0;
+    data.entries[1].gapPercent = (100 * (data.entries[1].perimeter - data.entries[0].perimeter)) / data.entries[0].perimeter;
+    expect(() => readCatalogue(JSON.stringify(data), 'saddle-first.json')).toThrow(/entry 2 \(rank 2, .*\): index is 0 after rank 1 of index 1 when expected rank 1 stable/);
   });
 });
