@@ -39,6 +39,13 @@ export const MAX_ROUNDING_SLACK = 1e-4;
  */
 export const SAME_EQUILIBRIUM = 1e-9;
 
+/**
+ * Two equilibria of one candidate at the same perimeter are still distinct when a pressure differs by
+ * more than this times the largest |pressure| (or 1/sqrt(mean area)). Half the search's own threshold
+ * (1e-6 in the search under way for issue 11), so the reader never refuses what the search kept apart.
+ */
+export const SAME_PRESSURES = 0.5e-6;
+
 /** The tolerance an 'ok' certificate is held to: the relaxer's own (solver/options.ts). */
 export const CERTIFICATE_TOLERANCE = resolveOptions().certificateTolerance;
 
@@ -310,7 +317,7 @@ function checkEntry(
   // of each orbit, a search the sequence it tried
   const given = userIndices(s, classes);
   if (!same(given, assignment)) refuse(`assignment is [${assignment}]`, `[${given}] (equal areas given out in the query's order)`);
-  checkCandidate(entry, k, candidates, group === null ? '' : orbitRepresentative(s, group).join(','), cluster);
+  checkCandidate(entry, k, candidates, group === null ? '' : orbitRepresentative(s, group).join(','), cluster, pressureScale(query.areas));
 
   // the failure fields
   const walls = cluster.map.twins.length / 2;
@@ -327,13 +334,31 @@ function checkEntry(
   checkAnswer(entry, cluster, Float64Array.from(assignment, (i) => query.areas[i]));
 }
 
+/** The pressure scale of a query's areas: 1/sqrt(mean area). */
+function pressureScale(areas: readonly number[]): number {
+  let total = 0;
+  for (const a of areas) total += a;
+  return 1 / Math.sqrt(total / areas.length);
+}
+
+/** Whether two pressure lists differ by more than SAME_PRESSURES of their largest entry (or `scale`). */
+function pressuresApart(a: readonly number[], b: readonly number[], scale: number): boolean {
+  let most = scale;
+  for (let i = 0; i < a.length; i++) most = Math.max(most, Math.abs(a[i]), Math.abs(b[i]));
+  for (let i = 0; i < a.length; i++) if (Math.abs(a[i] - b[i]) > SAME_PRESSURES * most) return true;
+  return false;
+}
+
 /**
  * An entry among the others of its candidate (`key`, its orbit representative): a failure alone, or
  * certified equilibria that are distinct (as solver/equilibria.ts keeps them: perimeters more than
- * SAME_EQUILIBRIUM apart relative, or another family or index), all with the candidate's assignment and
- * starts tried, together reached by at most the starts tried; its family, if any, within its cluster.
+ * SAME_EQUILIBRIUM apart relative, or other pressures, family or index), all with the candidate's
+ * assignment and starts tried, together reached by at most the starts tried; its family, if any,
+ * within its cluster.
  */
-function checkCandidate(entry: CatalogueEntry, k: number, candidates: Map<string, Candidate>, key: string, cluster: Cluster): void {
+function checkCandidate(
+  entry: CatalogueEntry, k: number, candidates: Map<string, Candidate>, key: string, cluster: Cluster, scale: number,
+): void {
   const ok = entry.status === 'ok';
   const assignment = entry.assignment.join(',');
   let known = candidates.get(key);
@@ -365,8 +390,8 @@ function checkCandidate(entry: CatalogueEntry, k: number, candidates: Map<string
   const familyText = JSON.stringify(family);
   for (const other of known.found) {
     const apart = Math.abs(p - other.perimeter!) > (SAME_EQUILIBRIUM - 4 * WRITE_ROUNDING) * Math.max(p, other.perimeter!);
-    if (!apart && other.index === entry.index && JSON.stringify(other.family) === familyText) {
-      refuse(`perimeter ${p} repeats an equilibrium of its candidate (rank ${other.rank})`, `distinct equilibria (perimeters more than ${SAME_EQUILIBRIUM} apart, or another family)`);
+    if (!apart && other.index === entry.index && JSON.stringify(other.family) === familyText && !pressuresApart(entry.pressures!, other.pressures!, scale)) {
+      refuse(`perimeter ${p} repeats an equilibrium of its candidate (rank ${other.rank})`, `distinct equilibria (perimeters more than ${SAME_EQUILIBRIUM} apart, or other pressures, family or index)`);
     }
   }
   known.found.push(entry);

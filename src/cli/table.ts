@@ -2,6 +2,7 @@
 
 import type { Catalogue, CatalogueEntry } from '../catalogue/types.ts';
 import { formatValue, plural } from '../render/format.ts';
+import { DEFAULT_STARTS } from '../solver/equilibria.ts';
 
 /** Significant digits of perimeters and parameter values in printed tables (catalogue files keep 12). */
 export const TABLE_DIGITS = 10;
@@ -62,14 +63,15 @@ export function failureText(e: Pick<CatalogueEntry, 'status' | 'collapsingWall' 
 /**
  * Table lines: the ranked equilibria (at most `top`; a saddle says so in its status, with its index),
  * then failures (at most `top`) with what was tried. A column of the starts that reached each
- * equilibrium out of those tried appears when more than one start was tried per candidate.
+ * equilibrium out of those tried appears when some candidate was tried from more than one start.
  */
 export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): string[] {
   const lines: string[] = [];
   const k = c.counts;
   const q = c.query;
   const n = q.areas.length;
-  const search = q.starts > 1 || q.unstable ? `, ${plural(q.starts, 'start')} each${q.unstable ? ', saddles searched' : ''}` : '';
+  // the search said when it is not the default one (a version 1 file: one start)
+  const search = q.starts !== DEFAULT_STARTS || q.unstable ? `, ${plural(q.starts, 'start')} each${q.unstable ? ', saddles searched' : ''}` : '';
   lines.push(
     `${n} cells, areas ${q.areas.join(', ')}: ${k.arrangements} arrangements` +
       (k.arrangements !== k.enumerated ? ` (of ${k.enumerated}, filtered)` : '') +
@@ -81,7 +83,7 @@ export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): 
   const saddles = k.saddles > 0 || q.unstable ? `, ${plural(k.saddles, 'saddle')}` : '';
   lines.push(`${k.equilibria} certified equilibria (${k.stable} stable${saddles}), ${failed} failures${kinds ? ` (${kinds})` : ''}`);
   lines.push('');
-  const withStarts = q.starts > 1;
+  const withStarts = c.entries.some((e) => e.tried > 1);
   const ranked = c.entries.filter((e) => e.rank !== null && (!stableOnly || e.index === 0));
   const head = ['rank', 'perimeter', 'gap %', 'id', 'sides', 'areas by cell', 'index', ...(withStarts ? ['reached'] : []), 'status'];
   const rows: string[][] = ranked.slice(0, top).map((e) => [
