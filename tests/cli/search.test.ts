@@ -46,7 +46,7 @@ describe('--starts and --unstable', () => {
   it('a part ranked with other starts is refused by merge in one line (the query differs)', async () => {
     const a = join(dir, 'p1.json');
     const b = join(dir, 'p2.json');
-    expect((await lather(['rank', '--areas', '1,1,1', '--shard', '1/2', '--out', a, '--workers', '1'])).status).toBe(0);
+    expect((await lather(['rank', '--areas', '1,1,1', '--shard', '1/2', '--starts', '1', '--out', a, '--workers', '1'])).status).toBe(0);
     expect((await lather(['rank', '--areas', '1,1,1', '--shard', '2/2', '--starts', '2', '--out', b, '--workers', '1'])).status).toBe(0);
     oneLineFailure(await lather(['merge', a, b, '--out', join(dir, 'm.json')]), 'another query');
   });
