@@ -2,13 +2,29 @@
 // first drawings (`starts`), each descended to an end; the distinct certified equilibria kept with how
 // many starts reached each; saddles on request (Newton's method on the full equilibrium system).
 //
-// This file holds the contract the catalogue builds on (findEquilibria and its result types). The first
-// version runs one relaxation (relax(), or relaxFrom() from a warm start): today's answer.
+// The starts: first relax() (or relaxFrom() from a warm start), today's answer, so the search never
+// loses what one relaxation finds; then the construction-path drawing, then seeded perturbations of the
+// barycentric and construction-path drawings (relaxFromDrawing), each descended to its end. Two
+// certified answers are one equilibrium when their perimeters agree to SAME_PERIMETER (relative) and
+// their pressures to SAME_PRESSURE (relative to the cluster's pressure scale): members of one lens
+// family have the same perimeter and pressures, so a family is found once.
+//
+// Saddles (`unstable`): Newton's method on the full equilibrium system (roots.ts) from points of each
+// start's descent path (after PATH_BUDGETS steps: the path passes near the saddles that guard its
+// way, a collapse's included) and from perturbations of every certified equilibrium found; each end is
+// certified and classified as relax() does its answers (newton.ts answerAtState).
 
+import { UsageError } from '../errors.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
-import { type EquilibriumStart, relax, relaxFrom } from './newton.ts';
-import type { NewtonOptions } from './options.ts';
+import { descend } from './descent.ts';
+import { lensHostOf, lensSharesOf } from './family.ts';
+import {
+  type DrawingStart, type EquilibriumStart, answerAtState, drawingState, relax, relaxFrom, relaxFromDrawing,
+} from './newton.ts';
+import { type NewtonOptions, resolveOptions } from './options.ts';
+import { problemOf } from './problem.ts';
 import type { Equilibrium } from './result.ts';
+import { findRootFrom } from './roots.ts';
 
 /** Options of findEquilibria(): the relaxer's, and how hard to search. */
 export interface SearchOptions extends NewtonOptions {
@@ -24,8 +40,13 @@ export interface SearchOptions extends NewtonOptions {
   seed?: number;
 }
 
-/** Starts tried per candidate when none are asked for. */
-export const DEFAULT_STARTS = 1;
+/**
+ * Starts tried per candidate when none are asked for. With this default, the starts after the first
+ * are tried only when the first did not end at a certified equilibrium and the arrangement has a lens
+ * (2-sided cell): elsewhere the first start's answer stands, which keeps a ranking's time near that of
+ * one relaxation per candidate. Starts asked for explicitly are all tried.
+ */
+export const DEFAULT_STARTS = 2;
 
 /** Where a lens of a family can be: its cell and host walls, and the range it slides over. */
 export interface LensRange {
@@ -78,7 +99,143 @@ export interface EquilibriumSearch {
 export function findEquilibria(
   map: CubicMap, areas: Float64Array, options: SearchOptions = {}, warm: EquilibriumStart | null = null,
 ): EquilibriumSearch {
-  const eq = warm === null ? relax(map, areas, options) : relaxFrom(map, areas, warm, options);
-  if (eq.status === 'ok') return { found: [{ equilibrium: eq, reached: 1, family: null }], failure: null, tried: 1, iterations: eq.iterations };
-  return { found: [], failure: eq, tried: 1, iterations: eq.iterations };
+  const { starts: asked, unstable = false, seed = 1, ...newton } = options;
+  if (asked !== undefined && !(Number.isInteger(asked) && asked >= 1)) {
+    throw new UsageError(`Option starts is ${String(asked)} when expected a positive integer.`);
+  }
+  if (!(Number.isInteger(seed) && seed >= 0 && seed <= 0xffffffff)) {
+    throw new UsageError(`Option seed is ${String(seed)} when expected an integer from 0 to 4294967295.`);
+  }
+  const starts = asked ?? DEFAULT_STARTS;
+  const search = new Search(areas);
+  const first = warm === null ? relax(map, areas, newton) : relaxFrom(map, areas, warm, newton);
+  search.add(first, 1);
+  let tried = 1;
+  if (map.junctionCount > 0 && (asked !== undefined || unstable || (first.status !== 'ok' && hasLens(map)))) {
+    for (let i = 1; i < starts; i++) {
+      const eq = relaxFromDrawing(map, areas, startOf(i, seed), newton);
+      tried++;
+      if (eq !== null) search.add(eq, 1);
+    }
+  }
+  if (unstable && map.junctionCount > 0) findSaddles(map, areas, newton, starts, seed, search);
+  return search.result(map, first, tried);
+}
+
+// Two certified answers are one equilibrium when their perimeters agree to SAME_PERIMETER relative and
+// every pressure to SAME_PRESSURE times the largest |pressure| (plus the scale 1/sqrt(mean area)).
+const SAME_PERIMETER = 1e-9;
+const SAME_PRESSURE = 1e-6;
+// A perturbed start moves junctions by up to PERTURBATION of their shortest wall and bulges by up to
+// PERTURBATION radians.
+const PERTURBATION = 0.3;
+// Saddles: Newton's method (at most ROOT_BUDGET iterations) from the states a descent reaches after
+// each of PATH_BUDGETS steps, and from PERTURBED perturbations (SADDLE_PERTURBATIONS in size) of every
+// certified equilibrium.
+const ROOT_BUDGET = 40;
+const PATH_BUDGETS = [1, 2, 4, 8, 16, 32];
+const PERTURBED = 4;
+const SADDLE_PERTURBATIONS = [0.3, 0.6];
+
+// The i-th start (i >= 1): the construction-path drawing, then perturbations of the barycentric and the
+// construction-path drawings in turn.
+function startOf(i: number, seed: number): DrawingStart {
+  if (i === 1) return { drawing: 'insertion', seed: null, amplitude: 0 };
+  return { drawing: i % 2 === 0 ? 'barycentric' : 'insertion', seed: mix(seed, i), amplitude: PERTURBATION };
+}
+
+// A seed for the i-th use of `seed` (a multiplicative hash; common practice, no source).
+function mix(seed: number, i: number): number {
+  return (Math.imul(seed ^ 0x9e3779b9, 0x85ebca6b) + Math.imul(i, 0xc2b2ae35)) >>> 0;
+}
+
+// Whether some cell of the arrangement has two sides (a lens).
+function hasLens(map: CubicMap): boolean {
+  for (let f = 1; f < map.faceCount; f++) if (map.faceStarts[f + 1] - map.faceStarts[f] === 2) return true;
+  return false;
+}
+
+// Newton's method on the equilibrium system from the descent paths of the starts and from perturbations
+// of every equilibrium found so far; every certified end is added (reached by no start).
+function findSaddles(map: CubicMap, areas: Float64Array, newton: NewtonOptions, starts: number, seed: number, search: Search): void {
+  const opt = resolveOptions(newton);
+  const tryRoot = (start: DrawingStart, path: number): void => {
+    const state = drawingState(map, areas, start);
+    if (state === null) return;
+    const { problem, ws } = state;
+    let iterations = 0;
+    if (path > 0) iterations += descend(problem, ws, opt, path, false).iterations;
+    const root = findRootFrom(problem, ws, opt, ROOT_BUDGET);
+    iterations += root.iterations;
+    search.iterations += iterations;
+    if (root.converged) search.add(answerAtState(map, areas, ws.z, iterations, newton), 0);
+  };
+  const drawings: DrawingStart[] = [{ drawing: 'barycentric', seed: null, amplitude: 0 }];
+  for (let i = 1; i < starts; i++) drawings.push(startOf(i, seed));
+  for (const start of drawings) for (const path of PATH_BUDGETS) tryRoot(start, path);
+  const known = search.found.map((f) => f.equilibrium);
+  for (let j = 0; j < known.length; j++) {
+    for (let m = 0; m < PERTURBED; m++) {
+      const amplitude = SADDLE_PERTURBATIONS[m % SADDLE_PERTURBATIONS.length];
+      tryRoot({ drawing: known[j], seed: mix(seed, 1000 * (j + 1) + m), amplitude }, 0);
+    }
+  }
+}
+
+// The distinct certified equilibria seen so far.
+class Search {
+  readonly found: FoundEquilibrium[] = [];
+  iterations = 0;
+  private readonly scale: number;
+
+  constructor(areas: Float64Array) {
+    let total = 0;
+    for (const a of areas) total += a;
+    this.scale = 1 / Math.sqrt(total / areas.length);
+  }
+
+  // Count an answer: a certified one reached `reached` times more (a new equilibrium, or one seen).
+  add(eq: Equilibrium, reached: number): void {
+    this.iterations += reached > 0 ? eq.iterations : 0;
+    if (eq.status !== 'ok') return;
+    const same = this.found.find((f) => this.same(f.equilibrium, eq));
+    if (same !== undefined) same.reached += reached;
+    else this.found.push({ equilibrium: eq, reached, family: null });
+  }
+
+  private same(a: Equilibrium, b: Equilibrium): boolean {
+    if (Math.abs(a.perimeter - b.perimeter) > SAME_PERIMETER * Math.max(a.perimeter, b.perimeter)) return false;
+    let most = this.scale;
+    for (let f = 0; f < a.pressures.length; f++) most = Math.max(most, Math.abs(a.pressures[f]), Math.abs(b.pressures[f]));
+    for (let f = 0; f < a.pressures.length; f++) if (Math.abs(a.pressures[f] - b.pressures[f]) > SAME_PRESSURE * most) return false;
+    return true;
+  }
+
+  // The search's answer: stable equilibria by perimeter, then saddles by index and perimeter; their
+  // lens ranges; the first start's answer when nothing was found.
+  result(map: CubicMap, first: Equilibrium, tried: number): EquilibriumSearch {
+    const found = this.found.slice().sort((a, b) =>
+      (a.equilibrium.index as number) - (b.equilibrium.index as number) || a.equilibrium.perimeter - b.equilibrium.perimeter);
+    for (const f of found) f.family = familyOf(map, f.equilibrium);
+    return { found, failure: found.length === 0 ? first : null, tried, iterations: this.iterations };
+  }
+}
+
+// Where the lens of a family member can slide (the first lens set in one wall), or null when the answer
+// has no zero mode or no such lens.
+function familyOf(map: CubicMap, eq: Equilibrium): LensRange | null {
+  if (!(eq.zeroModes !== null && eq.zeroModes > 0) || map.junctionCount === 0) return null;
+  const problem = problemOf(map);
+  const t0 = 2 * problem.junctions;
+  const z = new Float64Array(problem.size);
+  z.set(eq.coords);
+  z.set(eq.bulges, t0);
+  z.set(eq.pressures, t0 + problem.walls);
+  for (let k = 0; k < problem.walls; k++) {
+    const host = lensHostOf(problem, k);
+    if (host === null || host.ka !== k) continue;
+    const shares = lensSharesOf(problem, z, host);
+    if (shares !== null) return { cell: host.cell + 1, walls: [host.ka, host.kb], ...shares };
+  }
+  return null;
 }

@@ -219,3 +219,22 @@ function bulgeOnCircle(problem: ClusterProblem, z: Float64Array, k: number, circ
   z[t0 + k] = old;
   return best;
 }
+
+/**
+ * Where the lens of `host` sits on its host wall at state z, as shares of the host wall's length (ka,
+ * the lens's span along the host circle, kb): `at` the share on ka's side, and the least (0, ka gone)
+ * and largest (kb gone) it reaches while sliding. null when the lens is not set in one wall.
+ */
+export function lensSharesOf(problem: ClusterProblem, z: Float64Array, host: LensHost): { at: number; from: number; to: number } | null {
+  const circle = hostCircleOf(problem, z, host);
+  if (circle === undefined) return null;
+  const chord = distance(z, host.a, host.b);
+  // the lens's span along the host circle: the arc between its junctions (the shorter one: the pieces
+  // continue the circle on either side)
+  const span = circle === null ? chord : 2 * circle.r * Math.asin(Math.min(1, chord / (2 * circle.r)));
+  const la = lengthOf(problem, z, host.ka);
+  const lb = lengthOf(problem, z, host.kb);
+  const total = Math.abs(la) + span + Math.abs(lb);
+  if (!(total > 0)) return null;
+  return { at: Math.abs(la) / total, from: 0, to: (Math.abs(la) + Math.abs(lb)) / total };
+}

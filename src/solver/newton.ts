@@ -32,6 +32,7 @@ import { centreLensInto, lensHostOf } from './family.ts';
 import { stabilityOf } from './stability.ts';
 import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
+import { mulberry32 } from '../random.ts';
 
 /** A previous answer's geometry, the start of relaxFrom (caller's units). */
 export interface EquilibriumStart {
@@ -283,6 +284,114 @@ export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOption
   return answerOf(map, problem, ws, areas, unit, opt, attempt, restarts);
 }
 
+/**
+ * A first drawing of findEquilibria's later starts (equilibria.ts): the barycentric or the
+ * construction-path drawing, its junctions moved and its bulges changed at random (seeded) when `seed`
+ * is not null, by `amplitude` times each junction's shortest wall and times one radian.
+ */
+export interface DrawingStart {
+  /** The barycentric or construction-path drawing, or a previous answer's geometry (caller's units). */
+  drawing: 'barycentric' | 'insertion' | EquilibriumStart;
+  seed: number | null;
+  amplitude: number;
+}
+
+// Halvings of a perturbation that leaves an invalid drawing before the start is dropped.
+const PERTURB_TRIES = 4;
+
+/**
+ * Write the first drawing `start` into the workspace of `map`'s problem, targets normalised (as relax
+ * does); returns the problem, the workspace and the unit of length, or null when that drawing cannot be
+ * made (the construction path fails, or every perturbation leaves an invalid drawing).
+ * Assumes checked input and at least one junction.
+ */
+export function drawingState(
+  map: CubicMap, areas: Float64Array, start: DrawingStart,
+): { problem: ClusterProblem; ws: Workspace; unit: number } | null {
+  const problem = problemOf(map);
+  const ws = workspaceFor(problem);
+  const unit = normaliseTargets(problem, ws, areas);
+  if (typeof start.drawing === 'object') {
+    loadStart(problem, ws, start.drawing, unit);
+  } else {
+    if (drawStart(map, problem, ws, start.drawing) === null) return null;
+    shrinkSmallCells(problem, ws);
+  }
+  if (start.seed === null) return { problem, ws, unit };
+  const base = Float64Array.from(ws.z);
+  let amplitude = start.amplitude;
+  for (let attempt = 0; attempt < PERTURB_TRIES; attempt++, amplitude *= 0.5) {
+    ws.z.set(base);
+    perturbInto(problem, ws.z, mulberry32(start.seed + attempt), amplitude);
+    perimeterInto(problem, ws.z, ws.cache, ws.areas);
+    let valid = ordersHold(problem, ws.z);
+    for (let f = 0; f < problem.cells; f++) if (!(ws.areas[f] > 0)) valid = false;
+    if (valid) return { problem, ws, unit };
+  }
+  return null;
+}
+
+// Move every junction of z by up to `amplitude` times its shortest wall's chord and every bulge by up to
+// `amplitude` radians (kept BULGE_EDGE inside (-pi, pi)), from the generator `next`.
+function perturbInto(problem: ClusterProblem, z: Float64Array, next: () => number, amplitude: number): void {
+  const { junctions, walls, starts, ends } = problem;
+  const t0 = 2 * junctions;
+  const reach = new Float64Array(junctions).fill(Infinity);
+  for (let k = 0; k < walls; k++) {
+    const a = starts[k];
+    const b = ends[k];
+    const c = Math.hypot(z[2 * b] - z[2 * a], z[2 * b + 1] - z[2 * a + 1]);
+    reach[a] = Math.min(reach[a], c);
+    reach[b] = Math.min(reach[b], c);
+  }
+  for (let v = 0; v < junctions; v++) {
+    const r = amplitude * reach[v] * Math.sqrt(next());
+    const angle = 2 * Math.PI * next();
+    z[2 * v] += r * Math.cos(angle);
+    z[2 * v + 1] += r * Math.sin(angle);
+  }
+  for (let k = 0; k < walls; k++) {
+    const t = z[t0 + k] + amplitude * (2 * next() - 1);
+    z[t0 + k] = Math.max(-BULGE_EDGE, Math.min(BULGE_EDGE, t));
+  }
+}
+
+// Bulges of a perturbed drawing stay this far inside (-pi, pi).
+const BULGE_EDGE = Math.PI - 0.1;
+
+/**
+ * Relax from the first drawing `start` (findEquilibria's later starts), with the verdicts and the lens
+ * family recovery of relax() but no second drawing; null when that drawing cannot be made.
+ * @throws UsageError as relax() does.
+ */
+export function relaxFromDrawing(map: CubicMap, areas: Float64Array, start: DrawingStart, options?: NewtonOptions): Equilibrium | null {
+  const opt = resolveOptions(options);
+  checkInput(map, areas);
+  if (map.junctionCount === 0) return circleAnswer(map, areas);
+  const state = drawingState(map, areas, start);
+  if (state === null) return null;
+  const { problem, ws, unit } = state;
+  return answerOf(map, problem, ws, areas, unit, opt, settle(map, problem, ws, opt, false), 0);
+}
+
+/**
+ * The answer at the state `z` (normalised units: lengths by `unit`, the targets normalised as relax
+ * does; its pressures the Lagrange multipliers), reached by a search other than the descent (the root
+ * finder of roots.ts) in `iterations` iterations: the verdict as for a settled descent, the
+ * certificate, and the index and zero modes.
+ * @throws UsageError as relax() does.
+ */
+export function answerAtState(map: CubicMap, areas: Float64Array, z: Float64Array, iterations: number, options?: NewtonOptions): Equilibrium {
+  const opt = resolveOptions(options);
+  checkInput(map, areas);
+  const problem = problemOf(map);
+  const ws = workspaceFor(problem);
+  const unit = normaliseTargets(problem, ws, areas);
+  ws.z.set(z);
+  const verdict = verdictOf(problem, ws, opt, 'settled');
+  return answerOf(map, problem, ws, areas, unit, opt, { verdict, iterations }, 0);
+}
+
 // Relax at targets whose logarithms are a fraction of the way from the largest target to the real ones
 // (MODERATE apart at first, STAGE times further apart at each next stage), each stage from the last
 // one's equilibrium, ending at the real targets. Returns the final attempt when every stage ended at an
@@ -367,9 +476,7 @@ export function relaxFrom(
   const unit = normaliseTargets(problem, ws, areas);
   const t0 = 2 * junctions;
   const p0 = t0 + walls;
-  for (let i = 0; i < t0; i++) ws.z[i] = start.coords[i] / unit;
-  for (let k = 0; k < walls; k++) ws.z[t0 + k] = start.bulges[k];
-  for (let f = 0; f < cells; f++) ws.z[p0 + f] = start.pressures[f] * unit;
+  loadStart(problem, ws, start, unit);
   perimeterInto(problem, ws.z, ws.cache, ws.areas);
   let valid = ordersHold(problem, ws.z);
   for (let f = 0; f < cells; f++) if (!(ws.areas[f] > 0) || !Number.isFinite(ws.z[p0 + f])) valid = false;
@@ -381,6 +488,15 @@ export function relaxFrom(
   cold.iterations += warm.iterations;
   cold.restarts += 1;
   return cold.status === 'ok' ? cold : warm;
+}
+
+// A previous answer's geometry `start` (caller's units) into ws.z, in units of `unit`.
+function loadStart(problem: ClusterProblem, ws: Workspace, start: EquilibriumStart, unit: number): void {
+  const t0 = 2 * problem.junctions;
+  const p0 = t0 + problem.walls;
+  for (let i = 0; i < t0; i++) ws.z[i] = start.coords[i] / unit;
+  for (let k = 0; k < problem.walls; k++) ws.z[t0 + k] = start.bulges[k];
+  for (let f = 0; f < problem.cells; f++) ws.z[p0 + f] = start.pressures[f] * unit;
 }
 
 const FACTORS = new Float64Array(BULGE_FACTORS);
