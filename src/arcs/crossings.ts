@@ -84,13 +84,25 @@ function arcBoxInto(
   box[o + 3] = y1 + near;
 }
 
-// Intersections of the supporting circles or lines of walls k1 and k2 (at most 2), into px, py.
+// Intersections of the supporting circles or lines of walls k1 and k2 (at most 2), into px, py. Walls
+// that share a junction meet there: only their other intersection is returned, computed from the
+// junction (the mirror image of the junction in the line of centres, or the other root along the line),
+// which stays exact for nearly straight walls, whose huge circles would put a computed intersection
+// far from the junction.
 function meetInto(
   k1: number, k2: number, coords: Float64Array, bulges: Float64Array, lower: Int32Array, twins: Int32Array,
   cx: Float64Array, cy: Float64Array, radius: Float64Array, px: Float64Array, py: Float64Array,
 ): number {
   const straight1 = Math.abs(bulges[k1]) < STRAIGHT_BULGE;
   const straight2 = Math.abs(bulges[k2]) < STRAIGHT_BULGE;
+  const a1 = (lower[k1] / 3) | 0;
+  const b1 = (twins[lower[k1]] / 3) | 0;
+  const a2 = (lower[k2] / 3) | 0;
+  const b2 = (twins[lower[k2]] / 3) | 0;
+  const sharedA = a1 === a2 || a1 === b2;
+  const sharedB = b1 === a2 || b1 === b2;
+  if (sharedA && sharedB) return 0;
+  if (sharedA || sharedB) return otherMeetInto(sharedA ? a1 : b1, k1, k2, straight1, straight2, coords, lower, twins, cx, cy, px, py);
   // Are both straight? Two lines meet at most once.
   if (straight1 && straight2) {
     const a1 = (lower[k1] / 3) | 0;
@@ -153,6 +165,44 @@ function meetInto(
   px[1] = mx + (h * dy) / d;
   py[1] = my - (h * dx) / d;
   return 2;
+}
+
+// The intersection other than their shared junction v of the supporting curves of walls k1 and k2, into
+// px[0], py[0]; returns 0 when there is none (two lines, or curves tangent at v).
+function otherMeetInto(
+  v: number, k1: number, k2: number, straight1: boolean, straight2: boolean, coords: Float64Array,
+  lower: Int32Array, twins: Int32Array, cx: Float64Array, cy: Float64Array, px: Float64Array, py: Float64Array,
+): number {
+  const vx = coords[2 * v];
+  const vy = coords[2 * v + 1];
+  if (straight1 && straight2) return 0;
+  if (straight1 || straight2) {
+    // along the line from v, v + s (d), the circle's other point: s = -2 (v - c) . d / |d|^2
+    const line = straight1 ? k1 : k2;
+    const circle = straight1 ? k2 : k1;
+    const a = (lower[line] / 3) | 0;
+    const w = a === v ? (twins[lower[line]] / 3) | 0 : a;
+    const dx = coords[2 * w] - vx;
+    const dy = coords[2 * w + 1] - vy;
+    const q = dx * dx + dy * dy;
+    if (q === 0) return 0;
+    const s = (-2 * ((vx - cx[circle]) * dx + (vy - cy[circle]) * dy)) / q;
+    if (s === 0) return 0;
+    px[0] = vx + s * dx;
+    py[0] = vy + s * dy;
+    return 1;
+  }
+  // the mirror image of v in the line through the two centres
+  const ux = cx[k2] - cx[k1];
+  const uy = cy[k2] - cy[k1];
+  const u2 = ux * ux + uy * uy;
+  if (u2 === 0) return 0;
+  const wx = vx - cx[k1];
+  const wy = vy - cy[k1];
+  const along = (wx * ux + wy * uy) / u2;
+  px[0] = cx[k1] + 2 * along * ux - wx;
+  py[0] = cy[k1] + 2 * along * uy - wy;
+  return Math.hypot(px[0] - vx, py[0] - vy) > 0 ? 1 : 0;
 }
 
 // Whether a point of wall k's supporting curve lies on the wall itself: strictly on the bulge side of

@@ -129,7 +129,9 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
     const dy = coords[2 * b + 1] - coords[2 * a + 1];
     const chord = Math.hypot(dx, dy);
     let length = chord;
-    let curvature = 0;
+    // (a nearly straight wall: the circle's curvature 2 sin t / c, which its centre, too far away, would
+    // give with a rounding error of the order of t)
+    let curvature = chord > 0 ? (2 * Math.sin(t)) / chord : 0;
     if (Math.abs(t) >= STRAIGHT) {
       // centre on the chord's perpendicular bisector, at (c/2) cot t on the side opposite the left normal
       const cot = Math.cos(t) / Math.sin(t);
@@ -165,9 +167,15 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
       let tx: number;
       let ty: number;
       if (Math.abs(t) < STRAIGHT) {
+        // a nearly straight wall leaves its junction at the angle t from its chord, to the side it bulges
+        // (the chord direction alone would be off by t, as much as the tolerance at small bulges)
         const w = (twins[e] / 3) | 0;
-        tx = coords[2 * w] - coords[2 * v];
-        ty = coords[2 * w + 1] - coords[2 * v + 1];
+        const dx = coords[2 * w] - coords[2 * v];
+        const dy = coords[2 * w + 1] - coords[2 * v + 1];
+        const cos = Math.cos(t);
+        const sin = Math.sin(t);
+        tx = dx * cos - dy * sin;
+        ty = dx * sin + dy * cos;
       } else {
         // perpendicular to the radius; a wall bulging left of its dart turns clockwise about its centre
         const rx = coords[2 * v] - cx[k];

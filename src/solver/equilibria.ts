@@ -4,7 +4,8 @@
 //
 // The starts: first relax() (or relaxFrom() from a warm start), today's answer, so the search never
 // loses what one relaxation finds; then the construction-path drawing, then seeded perturbations of the
-// barycentric and construction-path drawings (relaxFromDrawing), each descended to its end. Two
+// barycentric and construction-path drawings (relaxFromDrawing), each descended to its end; areas
+// nearly equal that none of them brought to an equilibrium are continued from the equal-area one. Two
 // certified answers are one equilibrium when their perimeters agree to SAME_PERIMETER (relative) and
 // their pressures to SAME_PRESSURE (relative to the cluster's pressure scale): members of one lens
 // family have the same perimeter and pressures, so a family is found once.
@@ -118,6 +119,16 @@ export function findEquilibria(
       if (eq !== null) search.add(eq, 1);
     }
   }
+  if (search.found.length === 0 && map.junctionCount > 0 && nearlyEqual(areas)) {
+    // Are the areas equal but for rounding-sized differences? Continue from the equal-area equilibrium.
+    const mean = areas.reduce((s, a) => s + a, 0) / areas.length;
+    const level = relax(map, new Float64Array(areas.length).fill(mean), newton);
+    search.iterations += level.iterations;
+    if (level.status === 'ok') {
+      search.add(relaxFrom(map, areas, level, newton), 1);
+      tried++;
+    }
+  }
   if (unstable && map.junctionCount > 0) findSaddles(map, areas, newton, starts, seed, search);
   return search.result(map, first, tried);
 }
@@ -126,6 +137,9 @@ export function findEquilibria(
 // every pressure to SAME_PRESSURE times the largest |pressure| (plus the scale 1/sqrt(mean area)).
 const SAME_PERIMETER = 1e-9;
 const SAME_PRESSURE = 1e-6;
+// Areas this close to equal (relative) that no start brought to an equilibrium are reached by
+// continuation from the equal-area equilibrium.
+const NEAR_EQUAL = 1e-3;
 // A perturbed start moves junctions by up to PERTURBATION of their shortest wall and bulges by up to
 // PERTURBATION radians.
 const PERTURBATION = 0.3;
@@ -147,6 +161,17 @@ function startOf(i: number, seed: number): DrawingStart {
 // A seed for the i-th use of `seed` (a multiplicative hash; common practice, no source).
 function mix(seed: number, i: number): number {
   return (Math.imul(seed ^ 0x9e3779b9, 0x85ebca6b) + Math.imul(i, 0xc2b2ae35)) >>> 0;
+}
+
+// Areas whose largest is within NEAR_EQUAL (relative) of their least.
+function nearlyEqual(areas: Float64Array): boolean {
+  let least = Infinity;
+  let most = 0;
+  for (const a of areas) {
+    least = Math.min(least, a);
+    most = Math.max(most, a);
+  }
+  return most <= (1 + NEAR_EQUAL) * least;
 }
 
 // Whether some cell of the arrangement has two sides (a lens).

@@ -30,7 +30,7 @@ export interface RootReport {
 
 // Pivots at most ZERO_PIVOT of the matrix's scale count as zero; then the step is taken with the shift
 // REGULAR on every unknown.
-const ZERO_PIVOT = 1e-13;
+const ZERO_PIVOT = 1e-8;
 const REGULAR = 1e-9;
 // Sufficient decrease of the merit (a fraction of the predicted one) and the most halvings of a step.
 const ARMIJO = 1e-4;
