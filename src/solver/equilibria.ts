@@ -11,9 +11,10 @@
 // family have the same perimeter and pressures, so a family is found once.
 //
 // Saddles (`unstable`): Newton's method on the full equilibrium system (roots.ts) from points of each
-// start's descent path (after PATH_BUDGETS steps: the path passes near the saddles that guard its
-// way, a collapse's included) and from perturbations of every certified equilibrium found; each end is
-// certified and classified as relax() does its answers (newton.ts answerAtState).
+// start's descent path (its first drawing, and after each of PATH_BUDGETS steps: the path passes near
+// the saddles that guard its way, a collapse's included) and from perturbations of every certified
+// equilibrium found; each end is certified and classified as relax() does its answers (newton.ts
+// answerAtState). Not yet tried: a minimisation with a collapsing wall held at a fixed short length.
 
 import { UsageError } from '../errors.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
@@ -144,10 +145,10 @@ const NEAR_EQUAL = 1e-3;
 // PERTURBATION radians.
 const PERTURBATION = 0.3;
 // Saddles: Newton's method (at most ROOT_BUDGET iterations) from the states a descent reaches after
-// each of PATH_BUDGETS steps, and from PERTURBED perturbations (SADDLE_PERTURBATIONS in size) of every
-// certified equilibrium.
+// each of PATH_BUDGETS steps (0: the drawing itself), and from PERTURBED perturbations of every
+// certified equilibrium (their sizes SADDLE_PERTURBATIONS in turn).
 const ROOT_BUDGET = 40;
-const PATH_BUDGETS = [1, 2, 4, 8, 16, 32];
+const PATH_BUDGETS = [0, 1, 2, 4, 8, 16, 32];
 const PERTURBED = 4;
 const SADDLE_PERTURBATIONS = [0.3, 0.6];
 
