@@ -365,6 +365,20 @@ export function rigidInto(z: Float64Array, junctions: number, rigid: Float64Arra
 }
 
 /**
+ * Take the three rigid motions of `rigid` (rigidInto: orthonormal) out of the junction part of the step
+ * d (a step solved without rigid rows may carry one, large where the shift is small).
+ */
+export function removeRigidInto(d: Float64Array, rigid: Float64Array, junctions: number): void {
+  const t0 = 2 * junctions;
+  for (let m = 0; m < 3; m++) {
+    const o = m * t0;
+    let dot = 0;
+    for (let i = 0; i < t0; i++) dot += rigid[o + i] * d[i];
+    for (let i = 0; i < t0; i++) d[i] -= dot * rigid[o + i];
+  }
+}
+
+/**
  * d^T B d for B = H(mu) + tau S of factorStepInto at z (cache as there), wall by wall: the curvature of
  * the step's model along d (2V + E numbers).
  */

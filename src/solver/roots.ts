@@ -11,7 +11,7 @@
 // line-search Newton methods for nonlinear equations). Where the matrix is singular (a lens family's
 // zero mode) a small positive shift keeps the step defined, and the step's rigid part is taken out.
 
-import { factorStepInto, rigidInto, solveStepInto } from './kkt.ts';
+import { factorStepInto, removeRigidInto, rigidInto, solveStepInto } from './kkt.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
 import { fitPressuresInto, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
@@ -93,14 +93,7 @@ export function findRootFrom(problem: ClusterProblem, ws: Workspace, opt: Resolv
       order = factorStepInto(problem, z, cache, mult, REGULAR, shift, ws.lengthGrad, change, rigid, kkt, 0);
     }
     solveStepInto(problem, kkt, order, direction, lambda);
-    if (kkt.rigidRows === 0) {
-      for (let m = 0; m < 3; m++) {
-        const o = m * t0;
-        let dot = 0;
-        for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
-        for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
-      }
-    }
+    if (kkt.rigidRows === 0) removeRigidInto(direction, rigid, junctions);
     // the first trial: the whole step, cut to the relaxer's largest moves
     let largestMove = 0;
     let largestTurn = 0;
