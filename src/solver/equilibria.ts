@@ -44,11 +44,12 @@ export interface SearchOptions extends NewtonOptions {
 
 /**
  * Starts tried per candidate when none are asked for. With this default, the starts after the first
- * are tried only when the first did not end at a certified equilibrium and the arrangement has a lens
- * (2-sided cell): elsewhere the first start's answer stands, which keeps a ranking's time near that of
- * one relaxation per candidate. Starts asked for explicitly are all tried.
+ * are tried only when the first ended without a verdict on the arrangement ('no-convergence', or
+ * 'walls-cross': equations solved by a drawing that is not one of the arrangement): a collapse verdict
+ * stands, which keeps a ranking's time that of one relaxation per candidate (every further start costs
+ * about one more; `npm run bench -- rank-starts`). Starts asked for explicitly are all tried.
  */
-export const DEFAULT_STARTS = 2;
+export const DEFAULT_STARTS = 3;
 
 /** Where a lens of a family can be: its cell and host walls, and the range it slides over. */
 export interface LensRange {
@@ -113,7 +114,7 @@ export function findEquilibria(
   const first = warm === null ? relax(map, areas, newton) : relaxFrom(map, areas, warm, newton);
   search.add(first, 1);
   let tried = 1;
-  if (map.junctionCount > 0 && (asked !== undefined || unstable || (first.status !== 'ok' && hasLens(map)))) {
+  if (map.junctionCount > 0 && (asked !== undefined || unstable || first.status === 'no-convergence' || first.status === 'walls-cross')) {
     for (let i = 1; i < starts; i++) {
       const eq = relaxFromDrawing(map, areas, startOf(i, seed), newton);
       tried++;
@@ -164,7 +165,7 @@ function mix(seed: number, i: number): number {
   return (Math.imul(seed ^ 0x9e3779b9, 0x85ebca6b) + Math.imul(i, 0xc2b2ae35)) >>> 0;
 }
 
-// Areas whose largest is within NEAR_EQUAL (relative) of their least.
+// Areas not all equal whose largest is within NEAR_EQUAL (relative) of their least.
 function nearlyEqual(areas: Float64Array): boolean {
   let least = Infinity;
   let most = 0;
@@ -172,13 +173,7 @@ function nearlyEqual(areas: Float64Array): boolean {
     least = Math.min(least, a);
     most = Math.max(most, a);
   }
-  return most <= (1 + NEAR_EQUAL) * least;
-}
-
-// Whether some cell of the arrangement has two sides (a lens).
-function hasLens(map: CubicMap): boolean {
-  for (let f = 1; f < map.faceCount; f++) if (map.faceStarts[f + 1] - map.faceStarts[f] === 2) return true;
-  return false;
+  return most > least && most <= (1 + NEAR_EQUAL) * least;
 }
 
 // Newton's method on the equilibrium system from the descent paths of the starts and from perturbations
