@@ -197,7 +197,9 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
 
   const tasks: ClusterTask[] = planned.map((p, k) => ({
     code: p.cluster.code, classes, mode: p.candidates <= cap ? 'all' : 'search',
-    cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton, search: { starts, unstable },
+    // (starts left to the search's default when not asked for: the default tries its later starts only
+    // where the first gives no verdict, solver/equilibria.ts DEFAULT_STARTS)
+    cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton, search: { starts: options.starts, unstable },
   }));
   return {
     query: { areas: [...areas], filter, budgetSeconds, seed, starts, unstable },
