@@ -24,7 +24,7 @@ import { factorStepInto, rigidInto, solveStepInto, stepCurvature } from './kkt.t
 import type { ResolvedNewtonOptions } from './options.ts';
 import { fitPressuresInto, meritOf, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
-import { tangentResidualOf } from './verdict.ts';
+import { type CollapseWatch, collapseSeen, collapseWatch, relativeLengthOf, shortestWallOf, tangentResidualOf } from './verdict.ts';
 import * as terms from './wall-terms.ts';
 import { perimeterInto } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
@@ -45,7 +45,7 @@ export interface DescentReport {
 }
 
 // The per-wall records (local copies: under some loaders, tsx, every use of an import is a getter call).
-const { WALL_STRIDE, W_C, W_G, W_G1, W_H, W_H2, W_LTT, W_LXX, W_LYY, jumpOf } = terms;
+const { WALL_STRIDE, W_C, W_G1, W_H, W_H2, W_LTT, W_LXX, W_LYY, jumpOf } = terms;
 // Weight of the elastic area term of the merit at the start and its ceiling (normalised units: mean
 // cell area 1).
 const KAPPA_FIRST = 10;
@@ -63,15 +63,6 @@ const FLOOR_STEPS = 3;
 // TANGENT_SETTLED (Plateau's law, a well-conditioned test; the certificate judges the rest).
 const FLOOR_ULPS = 1e2;
 const TANGENT_SETTLED = 1e-11;
-// A wall below the collapse length counts as collapsing only once the areas are this close to their
-// targets (a start may draw small cells with short walls that grow first).
-const SETTLED = 0.02;
-// Early collapse: below WATCH collapse lengths the shortest wall is watched; when after WATCH_STEPS
-// steps its chord is below where it was and the gradient above WATCH_GRADIENT of where it was, it
-// counts as collapsing.
-const WATCH = 50;
-const WATCH_STEPS = 3;
-const WATCH_GRADIENT = 0.5;
 // Close enough for Newton's own steps: gradient and area error below ENDGAME.
 const ENDGAME = 1e-2;
 // Below this area error the Hessian takes the last step's pressures instead of fitting them.
@@ -107,238 +98,293 @@ const POOR = 0.25;
 const BULGE_LIMIT = Math.PI - 1e-6;
 
 /**
+ * The state of one descent: the iterate z (and the trial state of a step, the two swapped when a step
+ * is taken) with its perimeter, merit, gradient and area error; the step control (the merit's weight
+ * kappa, the shift tau, the area growth allowed per step, and within a step the cut of the step length
+ * and whether the shift had to be raised); the pressure bound of the step; and the watch of the
+ * rounding floor.
+ */
+interface DescentState {
+  z: Float64Array;
+  trial: Float64Array;
+  perimeter: number;
+  phi: number;
+  gmax: number;
+  violation: number;
+  /** Perimeter and merit at the trial state of the last step tried. */
+  perimeterTrial: number;
+  phiTrial: number;
+  kappa: number;
+  tau: number;
+  grow: number;
+  cut: number;
+  raised: boolean;
+  /** Pressures (in the Hessian and of the step) are kept within +-cap. */
+  cap: number;
+  floorBest: number;
+  floorSteps: number;
+  iterations: number;
+}
+
+/**
  * Descend from the geometry in ws.z towards ws.targets with at most `budget` Newton iterations, the
  * merit's multipliers starting at 0 (or at the pressures in ws.z when `warm`, a previous equilibrium's).
- * On return ws.z holds the last accepted geometry and its pressure estimates.
+ * On return ws.z holds the last accepted geometry and its pressure estimates, and ws.cache its wall
+ * records.
  */
 export function descend(
   problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, budget: number, warm: boolean,
 ): DescentReport {
   const { cells, junctions, walls } = problem;
+  const dim = 2 * junctions + walls;
+  const s = startOf(problem, ws, warm);
+  const watch = collapseWatch();
+  let end: DescentEnd;
+  for (;;) {
+    const here = endHere(problem, ws, opt, s, watch);
+    if (here !== null) {
+      end = here;
+      break;
+    }
+    if (s.iterations >= budget) {
+      end = 'max-iterations';
+      break;
+    }
+    s.iterations++;
+    prepareStep(problem, ws, s);
+    const outcome = tryStep(problem, ws, opt, s);
+    if (outcome !== 'accepted') {
+      // restore the records at z and stop: no admissible step lowers Phi
+      const { targets, mult, cache, areas, mu, grad, lengthGrad } = ws;
+      s.perimeter = perimeterInto(problem, s.z, cache, areas);
+      s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, cache, areas, mu, grad, lengthGrad);
+      end = outcome === 'failed' ? 'non-finite' : atFloor(problem, ws, s) ? 'settled' : 'stalled';
+      break;
+    }
+    takeStep(problem, ws, s);
+  }
+  if (s.z !== ws.z) ws.z.set(s.z.subarray(0, dim));
+  for (let f = 0; f < cells; f++) ws.z[dim + f] = ws.mu[f];
+  const wall = shortestWallOf(problem, ws.cache, ws.targets);
+  return { end, iterations: s.iterations, wall, chord: relativeLengthOf(problem, ws.cache, ws.targets, wall) };
+}
+
+// The state at the start of a descent from ws.z (records, merit and gradient at ws.z).
+function startOf(problem: ClusterProblem, ws: Workspace, warm: boolean): DescentState {
+  const { cells, junctions, walls } = problem;
+  const dim = 2 * junctions + walls;
+  const { z, targets, mult, mu, areas, grad, lengthGrad, cache, chords } = ws;
+  for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
+  const kappa = KAPPA_FIRST;
+  const perimeter = perimeterInto(problem, z, cache, areas);
+  const phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
+  const gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
+  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
+  return {
+    z, trial: ws.trial, perimeter, phi, gmax, violation: violationOf(areas, targets, cells), perimeterTrial: perimeter,
+    phiTrial: phi, kappa, tau: warm ? TAU_MIN : TAU_START, grow: GROW, cut: 1, raised: false, cap: Infinity,
+    floorBest: Infinity, floorSteps: 0, iterations: 0,
+  };
+}
+
+// How the descent ends at its present iterate, or null when it goes on.
+function endHere(
+  problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, s: DescentState, watch: CollapseWatch,
+): DescentEnd | null {
+  const { cache, mu, grad, targets } = ws;
+  const { gmax, violation } = s;
+  if (!Number.isFinite(s.phi) || !Number.isFinite(gmax)) return 'non-finite';
+  if (gmax <= opt.tolerance && violation <= opt.tolerance && scaledGradientMax(problem, cache, mu, grad) <= opt.tolerance) {
+    return 'settled';
+  }
+  // Is the descent within CLOSE of an equilibrium without getting closer? It is at the rounding floor.
+  if (gmax <= CLOSE && violation <= CLOSE) {
+    if (gmax < 0.5 * s.floorBest) {
+      s.floorBest = gmax;
+      s.floorSteps = 0;
+    } else if (++s.floorSteps >= FLOOR_STEPS && scaledGradientMax(problem, cache, mu, grad) <= CLOSE) {
+      return 'settled';
+    }
+  }
+  // Is a wall near a full circle, the gradient at its floor, and the geometry at an equilibrium?
+  if (violation <= CLOSE && nearFullCircle(cache, problem.walls) && tangentResidualOf(problem, s.z) <= TANGENT_SETTLED) {
+    return 'settled';
+  }
+  // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
+  if (collapseSeen(watch, problem, cache, targets, violation, gmax, opt.collapseLength)) return 'collapse';
+  return null;
+}
+
+// Whether the records at z (just restored) put the descent within CLOSE of an equilibrium.
+function atFloor(problem: ClusterProblem, ws: Workspace, s: DescentState): boolean {
+  return s.gmax <= CLOSE && s.violation <= CLOSE && scaledGradientMax(problem, ws.cache, ws.mu, ws.grad) <= CLOSE;
+}
+
+// The step's ingredients at z: rigid motions, shift scales, the pressure bound, the Hessian's pressures
+// and the area changes asked for; the least shift near an equilibrium.
+function prepareStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
+  const { cells, junctions, walls } = problem;
+  const t0 = 2 * junctions;
+  const { z, gmax, violation } = s;
+  const { targets, mult, mu, areas, cache, rigid, shift, lengthGrad, hessianPressures, change } = ws;
+  rigidInto(z, junctions, rigid);
+  shiftScalesInto(problem, cache, mu, shift);
+  let curvatureMax = 0;
+  for (let k = 0; k < walls; k++) {
+    const c = cache[k * WALL_STRIDE + W_C];
+    const v = c > 0 ? Math.abs(2 * Math.sin(z[t0 + k])) / c : 0;
+    if (v > curvatureMax) curvatureMax = v;
+  }
+  const cap = PRESSURE_CAP * (cells * curvatureMax + 1);
+  s.cap = cap;
+  // the Hessian's pressures: those that best explain the present shape (least squares), which stay
+  // physical far from the targets, where the step's own multipliers can be anything
+  const fitted = (violation > FIT_BELOW || s.iterations === 1) && fitPressuresInto(problem, z, cache, lengthGrad, hessianPressures, ws.cellGrad, ws.normal, ws.pivots, ws.row);
+  for (let f = 0; f < cells; f++) {
+    const m = fitted ? hessianPressures[f] : violation > FIT_BELOW ? mu[f] : mult[f];
+    hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
+    change[f] = aimOf(targets[f], areas[f], s.grow) - areas[f];
+  }
+  // Near an equilibrium? Newton's own step (the least shift) converges quadratically from here.
+  if (gmax < ENDGAME && violation < ENDGAME) s.tau = TAU_MIN;
+  s.cut = 1;
+  s.raised = false;
+}
+
+// Factor, solve and judge steps from z, the shift raised and the step cut after each refusal, until one
+// is accepted (its state in s.trial and ws.trialAreas) or MAX_ATTEMPTS are spent ('refused'), or the
+// step is not finite ('failed').
+function tryStep(
+  problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, s: DescentState,
+): 'accepted' | 'refused' | 'failed' {
+  const { cells, junctions, walls } = problem;
   const t0 = 2 * junctions;
   const dim = t0 + walls;
-  let z = ws.z;
-  let trial = ws.trial;
+  const { z, trial, cap } = s;
   const {
-    targets, mult, mu, lambda, areas, trialAreas, grad, lengthGrad, shift, direction, cache, chords, rigid, change,
-    hessianPressures, kkt,
+    targets, lambda, areas, trialAreas, shift, direction, cache, chords, rigid, change, hessianPressures, lengthGrad, kkt,
   } = ws;
-  for (let f = 0; f < cells; f++) mult[f] = warm ? z[dim + f] : 0;
-  let kappa = KAPPA_FIRST;
-  let grow = GROW;
-  let tau = warm ? TAU_MIN : TAU_START;
-  let perimeter = perimeterInto(problem, z, cache, areas);
-  let phi = meritOf(perimeter, areas, targets, mult, kappa, cells);
-  let gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
-  let violation = violationOf(areas, targets, cells);
-  let iterations = 0;
-  let end: DescentEnd = 'max-iterations';
-  let floorBest = Infinity;
-  let floorSteps = 0;
-  let watched = -1;
-  let watchSteps = 0;
-  let watchChord = Infinity;
-  let watchGradient = Infinity;
-  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
-  for (;;) {
-    if (!Number.isFinite(phi) || !Number.isFinite(gmax)) {
-      end = 'non-finite';
-      break;
+  for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
+    const order = factorStepInto(problem, z, cache, hessianPressures, s.tau, shift, lengthGrad, change, rigid, kkt, 0);
+    if (kkt.inertia.negative !== cells + kkt.rigidRows) {
+      s.raised = true;
+      s.tau = raise(s.tau);
+      continue;
     }
-    if (gmax <= opt.tolerance && violation <= opt.tolerance && scaledGradientMax(problem, cache, mu, grad) <= opt.tolerance) {
-      end = 'settled';
-      break;
-    }
-    // Is the descent within CLOSE of an equilibrium without getting closer? It is at the rounding floor.
-    if (gmax <= CLOSE && violation <= CLOSE) {
-      if (gmax < 0.5 * floorBest) {
-        floorBest = gmax;
-        floorSteps = 0;
-      } else if (++floorSteps >= FLOOR_STEPS && scaledGradientMax(problem, cache, mu, grad) <= CLOSE) {
-        end = 'settled';
-        break;
+    solveStepInto(problem, kkt, order, direction, lambda);
+    // without rigid rows the step may carry a rigid motion (large where the shift is small): take it out
+    if (kkt.rigidRows === 0) {
+      for (let m = 0; m < 3; m++) {
+        const o = m * t0;
+        let dot = 0;
+        for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
+        for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
       }
     }
-    // Is a wall near a full circle, the gradient at its floor, and the geometry at an equilibrium?
-    if (violation <= CLOSE && nearFullCircle(cache, walls) && tangentResidualOf(problem, z) <= TANGENT_SETTLED) {
-      end = 'settled';
-      break;
-    }
-    // Is a wall on its way to zero with the areas nearly right? The arrangement wants a T1 swap.
-    const shortWall = shortest(problem, cache, targets);
-    const shortChord = relativeLength(problem, cache, targets, shortWall);
-    if (violation <= SETTLED && shortChord < opt.collapseLength) {
-      end = 'collapse';
-      break;
-    }
-    // Is the same wall shrinking step after step while the gradient stays finite? The perimeter has a
-    // kink at a zero-length wall, so a descent towards it keeps a finite gradient, while one towards an
-    // equilibrium drives the gradient to zero: it is a collapse, seen before the wall is that short.
-    const watch = WATCH * opt.collapseLength;
-    if (violation <= SETTLED && shortChord < watch && shortWall === watched) {
-      watchSteps++;
-      if (watchSteps >= WATCH_STEPS && shortChord < watchChord && gmax > WATCH_GRADIENT * watchGradient) {
-        end = 'collapse';
-        break;
-      }
-    } else {
-      watched = shortChord < watch ? shortWall : -1;
-      watchSteps = 0;
-      watchChord = shortChord;
-      watchGradient = gmax;
-    }
-    if (iterations >= budget) break;
-    iterations++;
-    // the step's ingredients: rigid motions, shift scales, Hessian pressures, area changes
-    rigidInto(z, junctions, rigid);
-    shiftScalesInto(problem, cache, mu, shift);
-    let curvatureMax = 0;
-    for (let k = 0; k < walls; k++) {
-      const c = cache[k * WALL_STRIDE + W_C];
-      const v = c > 0 ? Math.abs(2 * Math.sin(z[t0 + k])) / c : 0;
-      if (v > curvatureMax) curvatureMax = v;
-    }
-    const cap = PRESSURE_CAP * (cells * curvatureMax + 1);
-    // the Hessian's pressures: those that best explain the present shape (least squares), which stay
-    // physical far from the targets, where the step's own multipliers can be anything
-    const fitted = (violation > FIT_BELOW || iterations === 1) && fitPressuresInto(problem, z, cache, lengthGrad, hessianPressures, ws.cellGrad, ws.normal, ws.pivots, ws.row);
+    // the merit's multipliers: the new pressures, kept within the physical bound
     for (let f = 0; f < cells; f++) {
-      const m = fitted ? hessianPressures[f] : violation > FIT_BELOW ? mu[f] : mult[f];
-      hessianPressures[f] = m > cap ? cap : m < -cap ? -cap : m;
-      change[f] = aimOf(targets[f], areas[f], grow) - areas[f];
+      const l = lambda[f];
+      lambda[f] = l > cap ? cap : l < -cap ? -cap : l;
     }
-    // Near an equilibrium? Newton's own step (the least shift) converges quadratically from here.
-    if (gmax < ENDGAME && violation < ENDGAME) tau = TAU_MIN;
-    let accepted = false;
-    let failed = false;
-    let phiTrial = phi;
-    let perimeterTrial = perimeter;
-    let cut = 1;
-    let raised = false;
-    for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
-      const order = factorStepInto(problem, z, cache, hessianPressures, tau, shift, lengthGrad, change, rigid, kkt, 0);
-      const inertia = kkt.inertia;
-      if (inertia.negative !== cells + kkt.rigidRows) {
-        raised = true;
-        tau = raise(tau);
-        continue;
-      }
-      solveStepInto(problem, kkt, order, direction, lambda);
-      // without rigid rows the step may carry a rigid motion (large where the shift is small): take it out
-      if (kkt.rigidRows === 0) {
-        for (let m = 0; m < 3; m++) {
-          const o = m * t0;
-          let dot = 0;
-          for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
-          for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
-        }
-      }
-      // the merit's multipliers: the new pressures, kept within the physical bound
-      for (let f = 0; f < cells; f++) {
-        const l = lambda[f];
-        lambda[f] = l > cap ? cap : l < -cap ? -cap : l;
-      }
-      // slope and curvature of Phi(.; lambda) along d, from the step's equations (J d = r)
-      let gd = 0;
-      let dd = 0;
-      for (let i = 0; i < dim; i++) {
-        gd += lengthGrad[i] * direction[i];
-        dd += shift[i] * direction[i] * direction[i];
-      }
-      let lr = 0;
-      let q = 0;
-      let rr = 0;
-      for (let f = 0; f < cells; f++) {
-        const r = change[f];
-        lr += lambda[f] * r;
-        q += ((targets[f] - areas[f]) * r) / targets[f];
-        rr += (r * r) / targets[f];
-      }
-      // slope = grad P . d - lambda . J d - kappa sum (T - A) J d / T with J d = r; d^T B d = -grad P . d
-      // + (unclamped lambda) . r, which the curvature approximates with the clamped one
-      const dbd = kkt.rigidRows === 0 ? stepCurvature(problem, cache, hessianPressures, tau, shift, direction) : -gd + lr;
-      // Is d not downhill on Phi(.; lambda)? Weigh the areas more (q > 0 whenever r is not 0).
-      if (gd - lr - kappa * q >= 0 && q > ROUNDING && kappa < KAPPA_MAX) {
-        kappa = Math.min(KAPPA_MAX, Math.max(2 * kappa, (2 * (gd - lr)) / q));
-      }
-      const slope = gd - lr - kappa * q;
-      const curvature = dbd - tau * dd + kappa * rr;
-      const phiHere = meritOf(perimeter, areas, targets, lambda, kappa, cells);
-      // cap the step: bulges by maxBulgeStep, junction moves by maxMoveStep; cut after each refusal
-      let alpha = 1;
-      let dt = 0;
-      for (let i = t0; i < dim; i++) {
-        const v = Math.abs(direction[i]);
-        if (v > dt) dt = v;
-      }
-      if (dt > opt.maxBulgeStep) alpha = opt.maxBulgeStep / dt;
-      let move = 0;
-      for (let v = 0; v < junctions; v++) {
-        const m = direction[2 * v] * direction[2 * v] + direction[2 * v + 1] * direction[2 * v + 1];
-        if (m > move) move = m;
-      }
-      move = Math.sqrt(move);
-      if (move * alpha > opt.maxMoveStep) alpha = opt.maxMoveStep / move;
-      alpha *= cut;
-      if (!Number.isFinite(alpha) || !Number.isFinite(slope)) {
-        failed = true;
-        break;
-      }
-      const noise = ROUNDING * (Math.abs(phiHere) + 1);
-      // Is the model flat to the rounding of Phi? Then Phi cannot judge the step: Newton's step is
-      // taken as it is (it only polishes the last digits of an equilibrium).
-      const flat = Math.abs(slope) <= noise && Math.abs(curvature) <= noise;
-      if (!(slope < 0) && !flat) {
-        tau = raise(tau);
-        continue;
-      }
-      const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
-      for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
-      if (admissible(problem, trial, chords)) {
-        perimeterTrial = perimeterInto(problem, trial, cache, trialAreas);
-        phiTrial = meritOf(perimeterTrial, trialAreas, targets, lambda, kappa, cells);
-        const change = phiTrial - phiHere;
-        const rho = predicted < 0 ? change / predicted : 0;
-        if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
-          accepted = true;
-          if ((flat || rho > GOOD) && cut === 1 && !raised) {
-            tau = Math.max(TAU_MIN, tau * LOWER);
-            grow = Math.min(GROW_MAX, grow * GROW_UP);
-          } else if (rho < POOR) {
-            tau = raise(tau);
-            grow = Math.max(GROW, grow / GROW_UP);
-          }
-          break;
-        }
-      }
-      tau = raise(tau);
-      grow = Math.max(GROW, grow / GROW_UP);
-      cut *= 0.5;
+    // slope and curvature of Phi(.; lambda) along d, from the step's equations (J d = r)
+    let gd = 0;
+    let dd = 0;
+    for (let i = 0; i < dim; i++) {
+      gd += lengthGrad[i] * direction[i];
+      dd += shift[i] * direction[i] * direction[i];
     }
-    if (!accepted) {
-      // restore the cache at z and stop: no admissible step lowers Phi
-      perimeter = perimeterInto(problem, z, cache, areas);
-      gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
-      end = failed ? 'non-finite' : gmax <= CLOSE && violation <= CLOSE && scaledGradientMax(problem, cache, mu, grad) <= CLOSE ? 'settled' : 'stalled';
-      break;
-    }
+    let lr = 0;
+    let q = 0;
+    let rr = 0;
     for (let f = 0; f < cells; f++) {
-      mult[f] = lambda[f];
-      areas[f] = trialAreas[f];
+      const r = change[f];
+      lr += lambda[f] * r;
+      q += ((targets[f] - areas[f]) * r) / targets[f];
+      rr += (r * r) / targets[f];
     }
-    const swap = z;
-    z = trial;
-    trial = swap;
-    perimeter = perimeterTrial;
-    phi = phiTrial;
-    gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
-    violation = violationOf(areas, targets, cells);
-    for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
+    // slope = grad P . d - lambda . J d - kappa sum (T - A) J d / T with J d = r; d^T B d = -grad P . d
+    // + (unclamped lambda) . r, which the curvature approximates with the clamped one
+    const dbd = kkt.rigidRows === 0 ? stepCurvature(problem, cache, hessianPressures, s.tau, shift, direction) : -gd + lr;
+    // Is d not downhill on Phi(.; lambda)? Weigh the areas more (q > 0 whenever r is not 0).
+    if (gd - lr - s.kappa * q >= 0 && q > ROUNDING && s.kappa < KAPPA_MAX) {
+      s.kappa = Math.min(KAPPA_MAX, Math.max(2 * s.kappa, (2 * (gd - lr)) / q));
+    }
+    const { kappa, tau } = s;
+    const slope = gd - lr - kappa * q;
+    const curvature = dbd - tau * dd + kappa * rr;
+    const phiHere = meritOf(s.perimeter, areas, targets, lambda, kappa, cells);
+    const alpha = stepLength(problem, opt, direction) * s.cut;
+    if (!Number.isFinite(alpha) || !Number.isFinite(slope)) return 'failed';
+    const noise = ROUNDING * (Math.abs(phiHere) + 1);
+    // Is the model flat to the rounding of Phi? Then Phi cannot judge the step: Newton's step is
+    // taken as it is (it only polishes the last digits of an equilibrium).
+    const flat = Math.abs(slope) <= noise && Math.abs(curvature) <= noise;
+    if (!(slope < 0) && !flat) {
+      s.tau = raise(tau);
+      continue;
+    }
+    const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
+    for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
+    if (admissible(problem, trial, chords)) {
+      s.perimeterTrial = perimeterInto(problem, trial, cache, trialAreas);
+      s.phiTrial = meritOf(s.perimeterTrial, trialAreas, targets, lambda, kappa, cells);
+      const change = s.phiTrial - phiHere;
+      const rho = predicted < 0 ? change / predicted : 0;
+      if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
+        if ((flat || rho > GOOD) && s.cut === 1 && !s.raised) {
+          s.tau = Math.max(TAU_MIN, tau * LOWER);
+          s.grow = Math.min(GROW_MAX, s.grow * GROW_UP);
+        } else if (rho < POOR) {
+          s.tau = raise(tau);
+          s.grow = Math.max(GROW, s.grow / GROW_UP);
+        }
+        return 'accepted';
+      }
+    }
+    s.tau = raise(tau);
+    s.grow = Math.max(GROW, s.grow / GROW_UP);
+    s.cut *= 0.5;
   }
-  if (z !== ws.z) ws.z.set(z.subarray(0, dim));
-  for (let f = 0; f < cells; f++) ws.z[dim + f] = mu[f];
-  const wall = shortest(problem, cache, targets);
-  return { end, iterations, wall, chord: relativeLength(problem, cache, targets, wall) };
+  return 'refused';
+}
+
+// The longest step along d the caps allow: bulges by maxBulgeStep, junction moves by maxMoveStep.
+function stepLength(problem: ClusterProblem, opt: ResolvedNewtonOptions, direction: Float64Array): number {
+  const { junctions, walls } = problem;
+  const t0 = 2 * junctions;
+  let alpha = 1;
+  let dt = 0;
+  for (let i = t0; i < t0 + walls; i++) {
+    const v = Math.abs(direction[i]);
+    if (v > dt) dt = v;
+  }
+  if (dt > opt.maxBulgeStep) alpha = opt.maxBulgeStep / dt;
+  let move = 0;
+  for (let v = 0; v < junctions; v++) {
+    const m = direction[2 * v] * direction[2 * v] + direction[2 * v + 1] * direction[2 * v + 1];
+    if (m > move) move = m;
+  }
+  move = Math.sqrt(move);
+  if (move * alpha > opt.maxMoveStep) alpha = opt.maxMoveStep / move;
+  return alpha;
+}
+
+// Take the accepted step: the trial becomes the iterate, the step's pressures the merit's multipliers.
+function takeStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
+  const { cells, walls } = problem;
+  const { targets, mult, lambda, areas, trialAreas, cache, mu, grad, lengthGrad, chords } = ws;
+  for (let f = 0; f < cells; f++) {
+    mult[f] = lambda[f];
+    areas[f] = trialAreas[f];
+  }
+  const swap = s.z;
+  s.z = s.trial;
+  s.trial = swap;
+  s.perimeter = s.perimeterTrial;
+  s.phi = s.phiTrial;
+  s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, cache, areas, mu, grad, lengthGrad);
+  s.violation = violationOf(areas, targets, cells);
+  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
 }
 
 // Whether the gradient's rounding floor at the state of the cache lies above CLOSE (see FLOOR_ULPS).
@@ -401,31 +447,6 @@ function violationOf(areas: Float64Array, targets: Float64Array, cells: number):
     if (!(v <= worst)) worst = Number.isNaN(v) ? Infinity : v;
   }
   return worst;
-}
-
-// The shortest wall, by arc length (from the perimeter pass's records: chord times g(t)) relative to sqrt
-// of the smaller target area on its two sides. (By length, not chord: the outer wall of a large cell
-// beside a tiny one has a tiny chord and a bulge near pi, and is long.)
-function shortest(problem: ClusterProblem, cache: Float64Array, targets: Float64Array): number {
-  let wall = 0;
-  let chord = Infinity;
-  for (let k = 0; k < problem.walls; k++) {
-    const c = relativeLength(problem, cache, targets, k);
-    if (c < chord) {
-      chord = c;
-      wall = k;
-    }
-  }
-  return wall;
-}
-
-// Wall k's arc length (chord times g(t), from its record) relative to sqrt of the smaller target area on
-// its two sides.
-function relativeLength(problem: ClusterProblem, cache: Float64Array, targets: Float64Array, k: number): number {
-  const l = problem.lefts[k];
-  const r = problem.rights[k];
-  const area = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
-  return (cache[k * WALL_STRIDE + W_C] * cache[k * WALL_STRIDE + W_G]) / Math.sqrt(area);
 }
 
 function admissible(problem: ClusterProblem, trial: Float64Array, chords: Float64Array): boolean {

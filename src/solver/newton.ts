@@ -30,7 +30,7 @@ import type { Equilibrium } from './result.ts';
 import { shrinkSmallCellsInto } from './small-cells.ts';
 import { centreLensInto, lensHostOf } from './family.ts';
 import { stabilityOf } from './stability.ts';
-import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
+import { OK, type Verdict, collapseOf, ordersHold, relativeLengthOf, shortestWallOf } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
 import { mulberry32 } from '../random.ts';
 
@@ -107,11 +107,15 @@ function crossingsAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): num
 }
 
 // The verdict of a descent that ended with `end` at ws.z.
+// (descend leaves ws.cache at the records of ws.z)
 function verdictOf(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, end: string): Verdict {
-  if (end === 'collapse') return collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
+  const { z, cache, targets } = ws;
+  if (end === 'collapse') return collapseOf(problem, z, cache, targets, opt.collapseLength);
   if (end !== 'settled') return NO_CONVERGENCE;
   // Is the equilibrium reached with a wall below the collapse length, or out of order at a junction?
-  if (shortestWall(problem, ws.z, ws.targets).chord < opt.collapseLength) return collapseOf(problem, ws.z, ws.targets, opt.collapseLength);
+  if (relativeLengthOf(problem, cache, targets, shortestWallOf(problem, cache, targets)) < opt.collapseLength) {
+    return collapseOf(problem, z, cache, targets, opt.collapseLength);
+  }
   if (!ordersHold(problem, ws.z)) return { status: 'walls-cross', wall: null, cell: null };
   return OK;
 }
