@@ -122,16 +122,21 @@ export function factorStepInto(
   return n;
 }
 
-/** Assemble the reduced matrix (lower triangle) and right-hand side, as factorStepInto does before factoring; returns the order. */
+/**
+ * Assemble the reduced matrix (lower triangle) and right-hand side, as factorStepInto does before
+ * factoring; returns the order. The phases: the walls' Hessian blocks and which bulges are eliminated
+ * (blocksInto), then per wall its chord block, its area gradient's rows and its bulge (a column kept, or
+ * eliminated by a rank-one update), then the shift and the gradient on the coordinates, the area changes
+ * and the rigid rows.
+ */
 export function assembleStepInto(
   problem: ClusterProblem, z: Float64Array, cache: Float64Array, mu: Float64Array, tau: number,
   shift: Float64Array, lengthGrad: Float64Array, change: Float64Array, rigid: Float64Array, kw: KktWorkspace,
 ): number {
-  const { junctions, walls, cells, starts, ends, lefts, rights } = problem;
+  const { junctions, walls, cells, starts, ends } = problem;
   const t0 = 2 * junctions;
-  const { matrix, rhs, slots, eliminated, blocks } = kw;
+  const { matrix, rhs, slots } = kw;
   const kept = blocksInto(problem, cache, mu, tau, shift, lengthGrad, kw);
-  const q = AREA;
   const p0 = t0 + kept;
   // with a shift, B is positive definite on the translations and needs no rigid rows
   const rigidRows = tau === 0 ? 3 : 0;
@@ -143,100 +148,13 @@ export function assembleStepInto(
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    const l = lefts[k];
-    const r = rights[k];
-    const d = (l >= 0 ? mu[l] : 0) - (r >= 0 ? mu[r] : 0);
-    // the wall's chord block, with the cross-product terms
-    const o = k * HESSIAN_BLOCK;
-    const mxx = blocks[o + M_XX];
-    const mxy = blocks[o + M_XY];
-    const myy = blocks[o + M_YY];
-    const half = 0.5 * d;
-    addLower(matrix, n, a, a, mxx);
-    addLower(matrix, n, a + 1, a, mxy);
-    addLower(matrix, n, a + 1, a + 1, myy);
-    addLower(matrix, n, b, b, mxx);
-    addLower(matrix, n, b + 1, b, mxy);
-    addLower(matrix, n, b + 1, b + 1, myy);
-    addLower(matrix, n, b, a, -mxx);
-    addLower(matrix, n, b, a + 1, half - mxy);
-    addLower(matrix, n, b + 1, a, -mxy - half);
-    addLower(matrix, n, b + 1, a + 1, -myy);
+    addChordBlock(problem, kw, n, k, jumpOf(problem, k, mu));
     // the wall's area gradient: dQ/da, dQ/db (Q added to the left cell, taken from the right one)
-    // NOTE: taken at the junctions of z with the records' chords; after a refused trial step
-    // (descent.ts) the records hold the trial's chords, not z's
-    areaGradientInto(cache, k, z, a, b, q);
-    const qax = q[Q_AX];
-    const qay = q[Q_AY];
-    const qbx = q[Q_BX];
-    const qby = q[Q_BY];
-    if (l >= 0) {
-      const row = p0 + l;
-      addLower(matrix, n, row, a, -qax);
-      addLower(matrix, n, row, a + 1, -qay);
-      addLower(matrix, n, row, b, -qbx);
-      addLower(matrix, n, row, b + 1, -qby);
-    }
-    if (r >= 0) {
-      const row = p0 + r;
-      addLower(matrix, n, row, a, qax);
-      addLower(matrix, n, row, a + 1, qay);
-      addLower(matrix, n, row, b, qbx);
-      addLower(matrix, n, row, b + 1, qby);
-    }
-    const slot = slots[k];
-    if (slot >= 0) {
-      // a kept bulge: its column as it is
-      const mxt = blocks[o + M_XT];
-      const myt = blocks[o + M_YT];
-      const qt = -q[Q_T];
-      addLower(matrix, n, slot, a, -mxt);
-      addLower(matrix, n, slot, a + 1, -myt);
-      addLower(matrix, n, slot, b, mxt);
-      addLower(matrix, n, slot, b + 1, myt);
-      addLower(matrix, n, slot, slot, blocks[o + M_TT] + tau * shift[t0 + k]);
-      if (l >= 0) addLower(matrix, n, p0 + l, slot, qt);
-      if (r >= 0) addLower(matrix, n, p0 + r, slot, -qt);
-      rhs[slot] = -lengthGrad[t0 + k];
-    } else {
-      // an eliminated bulge: subtract u u^T / pivot from its six rows and columns
-      const e = k * ELIMINATED_STRIDE;
-      const pivot = eliminated[e + E_PIVOT];
-      if (pivot < 0) negativePivots++;
-      const idx0 = a;
-      const idx1 = a + 1;
-      const idx2 = b;
-      const idx3 = b + 1;
-      const idx4 = l >= 0 ? p0 + l : -1;
-      const idx5 = r >= 0 ? p0 + r : -1;
-      const u0 = eliminated[e + E_U];
-      const u1 = eliminated[e + E_U + 1];
-      const u2 = eliminated[e + E_U + 2];
-      const u3 = eliminated[e + E_U + 3];
-      const u4 = eliminated[e + E_U + 4];
-      const u5 = eliminated[e + E_U + 5];
-      const inv = 1 / pivot;
-      const s = eliminated[e + E_RHS] * inv;
-      rhs[idx0] -= u0 * s;
-      rhs[idx1] -= u1 * s;
-      rhs[idx2] -= u2 * s;
-      rhs[idx3] -= u3 * s;
-      if (idx4 >= 0) rhs[idx4] -= u4 * s;
-      if (idx5 >= 0) rhs[idx5] -= u5 * s;
-      const us = U;
-      const ids = IDS;
-      us[0] = u0; us[1] = u1; us[2] = u2; us[3] = u3; us[4] = u4; us[5] = u5;
-      ids[0] = idx0; ids[1] = idx1; ids[2] = idx2; ids[3] = idx3; ids[4] = idx4; ids[5] = idx5;
-      for (let i = 0; i < 6; i++) {
-        const ii = ids[i];
-        if (ii < 0) continue;
-        const ui = us[i] * inv;
-        for (let j = 0; j <= i; j++) {
-          const jj = ids[j];
-          if (jj >= 0) addLower(matrix, n, ii, jj, -ui * us[j]);
-        }
-      }
-    }
+    // NOTE: taken at the junctions of z with the records' chords: the records must be z's
+    areaGradientInto(cache, k, z, a, b, AREA);
+    addAreaRows(problem, matrix, n, p0, k, AREA);
+    if (slots[k] >= 0) addKeptBulge(problem, kw, n, p0, k, AREA, tau, shift, lengthGrad);
+    else if (eliminateBulge(problem, kw, n, p0, k)) negativePivots++;
   }
   // shift on the coordinates, perimeter gradient, area changes, rigid motions
   for (let i = 0; i < t0; i++) {
@@ -253,9 +171,130 @@ export function assembleStepInto(
   return n;
 }
 
+// Wall k's chord block (from kw.blocks) at its junctions' rows, with the cross-product terms of its
+// area at pressure jump d (the matrix of order n).
+function addChordBlock(problem: ClusterProblem, kw: KktWorkspace, n: number, k: number, d: number): void {
+  const { matrix, blocks } = kw;
+  const a = 2 * problem.starts[k];
+  const b = 2 * problem.ends[k];
+  const o = k * HESSIAN_BLOCK;
+  const mxx = blocks[o + M_XX];
+  const mxy = blocks[o + M_XY];
+  const myy = blocks[o + M_YY];
+  const half = 0.5 * d;
+  addLower(matrix, n, a, a, mxx);
+  addLower(matrix, n, a + 1, a, mxy);
+  addLower(matrix, n, a + 1, a + 1, myy);
+  addLower(matrix, n, b, b, mxx);
+  addLower(matrix, n, b + 1, b, mxy);
+  addLower(matrix, n, b + 1, b + 1, myy);
+  addLower(matrix, n, b, a, -mxx);
+  addLower(matrix, n, b, a + 1, half - mxy);
+  addLower(matrix, n, b + 1, a, -mxy - half);
+  addLower(matrix, n, b + 1, a + 1, -myy);
+}
+
+// Wall k's area gradient q (an area block) in the pressure rows (from p0) of its two cells: -q in the
+// left cell's row, +q in the right one's.
+function addAreaRows(problem: ClusterProblem, matrix: Float64Array, n: number, p0: number, k: number, q: Float64Array): void {
+  const a = 2 * problem.starts[k];
+  const b = 2 * problem.ends[k];
+  const l = problem.lefts[k];
+  const r = problem.rights[k];
+  const qax = q[Q_AX];
+  const qay = q[Q_AY];
+  const qbx = q[Q_BX];
+  const qby = q[Q_BY];
+  if (l >= 0) {
+    const row = p0 + l;
+    addLower(matrix, n, row, a, -qax);
+    addLower(matrix, n, row, a + 1, -qay);
+    addLower(matrix, n, row, b, -qbx);
+    addLower(matrix, n, row, b + 1, -qby);
+  }
+  if (r >= 0) {
+    const row = p0 + r;
+    addLower(matrix, n, row, a, qax);
+    addLower(matrix, n, row, a + 1, qay);
+    addLower(matrix, n, row, b, qbx);
+    addLower(matrix, n, row, b + 1, qby);
+  }
+}
+
+// A kept bulge of wall k: its column as it is (chord terms, its shifted pivot, its cells' area terms
+// from the area block q) and its right-hand side.
+function addKeptBulge(
+  problem: ClusterProblem, kw: KktWorkspace, n: number, p0: number, k: number, q: Float64Array, tau: number,
+  shift: Float64Array, lengthGrad: Float64Array,
+): void {
+  const { matrix, rhs, blocks, slots } = kw;
+  const t0 = 2 * problem.junctions;
+  const a = 2 * problem.starts[k];
+  const b = 2 * problem.ends[k];
+  const l = problem.lefts[k];
+  const r = problem.rights[k];
+  const slot = slots[k];
+  const o = k * HESSIAN_BLOCK;
+  const mxt = blocks[o + M_XT];
+  const myt = blocks[o + M_YT];
+  const qt = -q[Q_T];
+  addLower(matrix, n, slot, a, -mxt);
+  addLower(matrix, n, slot, a + 1, -myt);
+  addLower(matrix, n, slot, b, mxt);
+  addLower(matrix, n, slot, b + 1, myt);
+  addLower(matrix, n, slot, slot, blocks[o + M_TT] + tau * shift[t0 + k]);
+  if (l >= 0) addLower(matrix, n, p0 + l, slot, qt);
+  if (r >= 0) addLower(matrix, n, p0 + r, slot, -qt);
+  rhs[slot] = -lengthGrad[t0 + k];
+}
+
+// An eliminated bulge of wall k: subtract u u^T / pivot from its six rows and columns (junction
+// coordinates, its cells' pressures) and u rhs_t / pivot from the right-hand side. Returns whether its
+// pivot is negative (it counts in the inertia).
+function eliminateBulge(problem: ClusterProblem, kw: KktWorkspace, n: number, p0: number, k: number): boolean {
+  const { matrix, rhs, eliminated } = kw;
+  const l = problem.lefts[k];
+  const r = problem.rights[k];
+  const e = k * ELIMINATED_STRIDE;
+  const pivot = eliminated[e + E_PIVOT];
+  const idx0 = 2 * problem.starts[k];
+  const idx1 = idx0 + 1;
+  const idx2 = 2 * problem.ends[k];
+  const idx3 = idx2 + 1;
+  const idx4 = l >= 0 ? p0 + l : -1;
+  const idx5 = r >= 0 ? p0 + r : -1;
+  const u0 = eliminated[e + E_U];
+  const u1 = eliminated[e + E_U + 1];
+  const u2 = eliminated[e + E_U + 2];
+  const u3 = eliminated[e + E_U + 3];
+  const u4 = eliminated[e + E_U + 4];
+  const u5 = eliminated[e + E_U + 5];
+  const inv = 1 / pivot;
+  const s = eliminated[e + E_RHS] * inv;
+  rhs[idx0] -= u0 * s;
+  rhs[idx1] -= u1 * s;
+  rhs[idx2] -= u2 * s;
+  rhs[idx3] -= u3 * s;
+  if (idx4 >= 0) rhs[idx4] -= u4 * s;
+  if (idx5 >= 0) rhs[idx5] -= u5 * s;
+  const us = U;
+  const ids = IDS;
+  us[0] = u0; us[1] = u1; us[2] = u2; us[3] = u3; us[4] = u4; us[5] = u5;
+  ids[0] = idx0; ids[1] = idx1; ids[2] = idx2; ids[3] = idx3; ids[4] = idx4; ids[5] = idx5;
+  for (let i = 0; i < 6; i++) {
+    const ii = ids[i];
+    if (ii < 0) continue;
+    const ui = us[i] * inv;
+    for (let j = 0; j <= i; j++) {
+      const jj = ids[j];
+      if (jj >= 0) addLower(matrix, n, ii, jj, -ui * us[j]);
+    }
+  }
+  return pivot < 0;
+}
+
 // The walls' Hessian blocks at pressures mu into kw.blocks, and which bulges stay: those whose pivot
 // is small against their column get a slot, the others their elimination data. Returns how many stay.
-// (Apart from assembleStepInto so that the compiler inlines addLower there.)
 function blocksInto(
   problem: ClusterProblem, cache: Float64Array, mu: Float64Array, tau: number, shift: Float64Array,
   lengthGrad: Float64Array, kw: KktWorkspace,
