@@ -2,7 +2,8 @@
 //
 // Every bridgeless cubic plane map with at least 4 junctions has a wall whose deletion (then smoothing
 // the two junctions left with two walls) leaves a bridgeless cubic plane map with one face fewer
-// (the last ear of an ear decomposition is such a wall). Walls are deleted that way down to the theta graph, whose three faces are drawn as a
+// (the last ear of an ear decomposition is such a wall; maps/deletion.ts). Walls are deleted that way
+// down to the theta graph, whose three faces are drawn as a
 // double bubble with the right areas (a straight middle wall and two outer arcs). The walls are then
 // put back in reverse order: each new wall's junctions are placed on the arcs they split (at the arcs'
 // midpoints; a lens takes the middle third of its host wall), and its bulge is chosen so that it cuts
@@ -16,27 +17,15 @@
 // faces (the face on the left of a dart at any level is the class of its face in the map).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
+import {
+  DELETION_RECORD as RECORD, R_A1, R_A2, R_B1, R_B2, R_E, R_T, R_X1, R_X2, R_Y1, R_Y2, deleteWallInto, facePairsInto,
+} from '../maps/deletion.ts';
 import { facesInto } from '../maps/faces.ts';
 import * as arc from './arc.ts';
 
 // NOTE: local copies of imported functions (under some loaders, tsx, every use of an import is a
 // getter call).
 const segmentFactor = arc.segmentFactor;
-
-// Record of one deletion, RECORD numbers: e, t (the wall's darts at A and B), then for A its other
-// darts a1, a2 and their twins x1, x2, and for B its other darts b1, b2 and their twins y1, y2 (read
-// after A was smoothed).
-const R_E = 0;
-const R_T = 1;
-const R_A1 = 2;
-const R_A2 = 3;
-const R_X1 = 4;
-const R_X2 = 5;
-const R_B1 = 6;
-const R_B2 = 7;
-const R_Y1 = 8;
-const R_Y2 = 9;
-const RECORD = 10;
 
 // Places tried for a junction put back, as arc fractions along the wall it splits.
 const PLACES = [0.5, 0.25, 0.75, 0.05, 0.95];
@@ -58,6 +47,7 @@ interface InsertionWorkspace {
   order: Int32Array;
   key: Float64Array;
   merges: Int32Array;
+  pairs: Int32Array;
 }
 
 const WORKSPACES = new Map<number, InsertionWorkspace>();
@@ -77,6 +67,7 @@ function workspaceFor(darts: number, faces: number): InsertionWorkspace {
       order: new Int32Array(darts / 2),
       key: new Float64Array(darts / 2),
       merges: new Int32Array(2 * (darts / 3)),
+      pairs: new Int32Array(faces * faces),
     };
     WORKSPACES.set(darts, ws);
   }
@@ -253,12 +244,13 @@ export function drawByInsertionInto(map: CubicMap, targets: Float64Array, coords
   return true;
 }
 
-// Delete one wall of the current map (darts tw, junctions alive), the first valid one in the
-// preferred order, and write its record. Returns false when none could be deleted.
+// Delete one wall of the current map (darts tw, junctions alive), the first deletable one in the
+// preferred order (maps/deletion.ts), and write its record. Returns false when none is deletable.
 function deleteOne(ws: InsertionWorkspace, junctions: number, k: number): boolean {
-  const { tw, alive, face, faceSize, order, key, records } = ws;
+  const { tw, alive, face, faceSize, order, key, records, pairs } = ws;
   const darts = 3 * junctions;
-  facesInto(tw, 3 * junctions, face, faceSize, alive);
+  const faces = facesInto(tw, darts, face, faceSize, alive);
+  facePairsInto(tw, darts, face, faces, pairs, alive);
   // candidate walls (lower darts), by the side count of the smaller cell on either side
   let count = 0;
   for (let e = 0; e < darts; e++) {
@@ -283,68 +275,11 @@ function deleteOne(ws: InsertionWorkspace, junctions: number, k: number): boolea
   }
   for (let i = 0; i < count; i++) {
     const e = order[i];
-    const t = tw[e];
-    const A = (e / 3) | 0;
-    const B = (t / 3) | 0;
-    if (A === B) continue;
-    const a1 = nextDart(e);
-    const a2 = prevDart(e);
-    const x1 = tw[a1];
-    const x2 = tw[a2];
-    // Would smoothing A join two darts of one junction? That makes a loop: not admissible.
-    tw[x1] = x2;
-    tw[x2] = x1;
-    const b1 = nextDart(t);
-    const b2 = prevDart(t);
-    const y1 = tw[b1];
-    const y2 = tw[b2];
-    tw[y1] = y2;
-    tw[y2] = y1;
-    alive[A] = 0;
-    alive[B] = 0;
-    let ok = (y1 / 3 | 0) !== (y2 / 3 | 0) && !(y1 === b1 || y1 === b2 || y2 === b1 || y2 === b2);
-    const p1 = tw[x1];
-    if (ok && alive[(x1 / 3) | 0] && ((x1 / 3) | 0) === ((p1 / 3) | 0)) ok = false;
-    if (ok) ok = bridgeless(ws, junctions);
-    if (ok) {
-      const r = k * RECORD;
-      records[r + R_E] = e;
-      records[r + R_T] = t;
-      records[r + R_A1] = a1;
-      records[r + R_A2] = a2;
-      records[r + R_X1] = x1;
-      records[r + R_X2] = x2;
-      records[r + R_B1] = b1;
-      records[r + R_B2] = b2;
-      records[r + R_Y1] = y1;
-      records[r + R_Y2] = y2;
-      return true;
-    }
-    // undo, B first
-    alive[A] = 1;
-    alive[B] = 1;
-    tw[b1] = y1;
-    tw[y1] = b1;
-    tw[b2] = y2;
-    tw[y2] = b2;
-    tw[a1] = x1;
-    tw[x1] = a1;
-    tw[a2] = x2;
-    tw[x2] = a2;
-    tw[e] = t;
-    tw[t] = e;
+    if (pairs[face[e] * faces + face[tw[e]]] !== 1) continue;
+    deleteWallInto(tw, alive, e, records, k * RECORD);
+    return true;
   }
   return false;
-}
-
-// Whether no wall of the current map has one face on both sides (for a cubic map: no bridge).
-function bridgeless(ws: InsertionWorkspace, junctions: number): boolean {
-  const { tw, alive, face, faceSize } = ws;
-  facesInto(tw, 3 * junctions, face, faceSize, alive);
-  for (let e = 0, m = 3 * junctions; e < m; e++) {
-    if (alive[(e / 3) | 0] && face[e] === face[tw[e]]) return false;
-  }
-  return true;
 }
 
 // Put junction J (darts j1 toward the first end, j2 toward the second) back on the wall p ... q at

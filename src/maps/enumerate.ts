@@ -8,19 +8,20 @@
 // and children of one parent are told apart by their canonical code. So every map appears exactly
 // once, with no table of maps seen: memory is the depth of the search times one parent's children.
 //
-// A wall is deletable when the two faces it separates share no other wall (the deletion leaves a
-// bridgeless map: a 2-edge cut of a plane graph is a 2-cycle of its dual). Among the deletable walls
+// A wall is deletable when the two faces it separates share no other wall (deletion.ts). Among the deletable walls
 // the canonical class has the smallest invariant (sizes of the two faces it separates, then of the
 // faces at its two ends); canonical labellings start only from darts of that class.
 
 import { CubicMap, next, prev, thetaMap } from './cubic-map.ts';
+import * as deletion from './deletion.ts';
 import * as faces from './faces.ts';
 import { type CanonicalForm, canonicalForm, labellingOrder } from './canonical.ts';
 import { UsageError } from '../errors.ts';
 import { CODE_CELL_LIMIT } from './code.ts';
 
-// NOTE: a local copy (under some loaders, tsx, every use of an import is a getter call).
+// NOTE: local copies (under some loaders, tsx, every use of an import is a getter call).
 const facesInto = faces.facesInto;
+const facePairsInto = deletion.facePairsInto;
 
 /** A map produced by the enumerator, with its automorphism group. */
 export interface EnumeratedMap {
@@ -90,16 +91,7 @@ function wallKey(w: ChildWork, e: number, t: number): number {
 function smallestDeletableKey(w: ChildWork, d: number): number {
   const { m, twins, faceOf, pairCount, keys, faces } = w;
   const K = faces + 1;
-  pairCount.fill(0, 0, K * K);
-  for (let e = 0; e < m; e++) {
-    const t = twins[e];
-    if (e < t) {
-      const a = faceOf[e];
-      const b = faceOf[t];
-      pairCount[a * K + b]++;
-      if (a !== b) pairCount[b * K + a]++;
-    }
-  }
+  facePairsInto(twins, m, faceOf, K, pairCount, null);
   const dt = twins[d];
   if (pairCount[faceOf[d] * K + faceOf[dt]] !== 1) return -1;
   const own = wallKey(w, d, dt);
