@@ -104,9 +104,12 @@ const BULGE_LIMIT = Math.PI - 1e-6;
  * and whether the shift had to be raised); the pressure bound of the step; and the watch of the
  * rounding floor.
  */
-interface DescentState {
+export interface DescentState {
+  /** The iterate (geometry, then pressure estimates), and the trial state of a step. */
   z: Float64Array;
   trial: Float64Array;
+  /** The wall records (perimeterInto) of z: what the step's matrix and the collapse watch read. */
+  cache: Float64Array;
   perimeter: number;
   phi: number;
   gmax: number;
@@ -137,7 +140,7 @@ export function descend(
 ): DescentReport {
   const { cells, junctions, walls } = problem;
   const dim = 2 * junctions + walls;
-  const s = startOf(problem, ws, warm);
+  const s = startDescent(problem, ws, warm);
   const watch = collapseWatch();
   let end: DescentEnd;
   for (;;) {
@@ -155,9 +158,9 @@ export function descend(
     const outcome = tryStep(problem, ws, opt, s);
     if (outcome !== 'accepted') {
       // restore the records at z and stop: no admissible step lowers Phi
-      const { targets, mult, cache, areas, mu, grad, lengthGrad } = ws;
-      s.perimeter = perimeterInto(problem, s.z, cache, areas);
-      s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, cache, areas, mu, grad, lengthGrad);
+      const { targets, mult, areas, mu, grad, lengthGrad } = ws;
+      s.perimeter = perimeterInto(problem, s.z, s.cache, areas);
+      s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, s.cache, areas, mu, grad, lengthGrad);
       end = outcome === 'failed' ? 'non-finite' : atFloor(problem, ws, s) ? 'settled' : 'stalled';
       break;
     }
@@ -169,8 +172,8 @@ export function descend(
   return { end, iterations: s.iterations, wall, chord: relativeLengthOf(problem, ws.cache, ws.targets, wall) };
 }
 
-// The state at the start of a descent from ws.z (records, merit and gradient at ws.z).
-function startOf(problem: ClusterProblem, ws: Workspace, warm: boolean): DescentState {
+/** The state at the start of a descent from ws.z (records, merit and gradient at ws.z). */
+export function startDescent(problem: ClusterProblem, ws: Workspace, warm: boolean): DescentState {
   const { cells, junctions, walls } = problem;
   const dim = 2 * junctions + walls;
   const { z, targets, mult, mu, areas, grad, lengthGrad, cache, chords } = ws;
@@ -181,7 +184,7 @@ function startOf(problem: ClusterProblem, ws: Workspace, warm: boolean): Descent
   const gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
   for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
   return {
-    z, trial: ws.trial, perimeter, phi, gmax, violation: violationOf(areas, targets, cells), perimeterTrial: perimeter,
+    z, trial: ws.trial, cache, perimeter, phi, gmax, violation: violationOf(areas, targets, cells), perimeterTrial: perimeter,
     phiTrial: phi, kappa, tau: warm ? TAU_MIN : TAU_START, grow: GROW, cut: 1, raised: false, cap: Infinity,
     floorBest: Infinity, floorSteps: 0, iterations: 0,
   };
@@ -191,8 +194,8 @@ function startOf(problem: ClusterProblem, ws: Workspace, warm: boolean): Descent
 function endHere(
   problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, s: DescentState, watch: CollapseWatch,
 ): DescentEnd | null {
-  const { cache, mu, grad, targets } = ws;
-  const { gmax, violation } = s;
+  const { mu, grad, targets } = ws;
+  const { cache, gmax, violation } = s;
   if (!Number.isFinite(s.phi) || !Number.isFinite(gmax)) return 'non-finite';
   if (gmax <= opt.tolerance && violation <= opt.tolerance && scaledGradientMax(problem, cache, mu, grad) <= opt.tolerance) {
     return 'settled';
@@ -217,16 +220,18 @@ function endHere(
 
 // Whether the records at z (just restored) put the descent within CLOSE of an equilibrium.
 function atFloor(problem: ClusterProblem, ws: Workspace, s: DescentState): boolean {
-  return s.gmax <= CLOSE && s.violation <= CLOSE && scaledGradientMax(problem, ws.cache, ws.mu, ws.grad) <= CLOSE;
+  return s.gmax <= CLOSE && s.violation <= CLOSE && scaledGradientMax(problem, s.cache, ws.mu, ws.grad) <= CLOSE;
 }
 
-// The step's ingredients at z: rigid motions, shift scales, the pressure bound, the Hessian's pressures
-// and the area changes asked for; the least shift near an equilibrium.
-function prepareStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
+/**
+ * The step's ingredients at s.z: rigid motions, shift scales, the pressure bound, the Hessian's
+ * pressures and the area changes asked for; the least shift near an equilibrium.
+ */
+export function prepareStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
   const { cells, junctions, walls } = problem;
   const t0 = 2 * junctions;
-  const { z, gmax, violation } = s;
-  const { targets, mult, mu, areas, cache, rigid, shift, lengthGrad, hessianPressures, change } = ws;
+  const { z, cache, gmax, violation } = s;
+  const { targets, mult, mu, areas, rigid, shift, lengthGrad, hessianPressures, change } = ws;
   rigidInto(z, junctions, rigid);
   shiftScalesInto(problem, cache, mu, shift);
   let curvatureMax = 0;
@@ -257,95 +262,110 @@ function prepareStep(problem: ClusterProblem, ws: Workspace, s: DescentState): v
 function tryStep(
   problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, s: DescentState,
 ): 'accepted' | 'refused' | 'failed' {
+  for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
+    const outcome = attemptStep(problem, ws, opt, s);
+    if (outcome === 'accepted' || outcome === 'failed') return outcome;
+  }
+  return 'refused';
+}
+
+/**
+ * One attempt at a step from s.z at the present shift s.tau (after prepareStep): factor, solve, and judge
+ * the trial state on the merit. 'accepted': the trial (s.trial, ws.trialAreas) lowers the merit enough;
+ * 'raised': no trial was made (the step's matrix has the wrong inertia, or the step is not downhill) and
+ * the shift was raised; 'cut': the trial was refused, the shift raised and the step cut; 'failed': the
+ * step is not finite.
+ */
+export function attemptStep(
+  problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, s: DescentState,
+): 'accepted' | 'raised' | 'cut' | 'failed' {
   const { cells, junctions, walls } = problem;
   const t0 = 2 * junctions;
   const dim = t0 + walls;
-  const { z, trial, cap } = s;
+  const { z, trial, cache, cap } = s;
   const {
-    targets, lambda, areas, trialAreas, shift, direction, cache, chords, rigid, change, hessianPressures, lengthGrad, kkt,
+    targets, lambda, areas, trialAreas, shift, direction, chords, rigid, change, hessianPressures, lengthGrad, kkt,
   } = ws;
-  for (let attempt = 0; attempt < MAX_ATTEMPTS; attempt++) {
-    const order = factorStepInto(problem, z, cache, hessianPressures, s.tau, shift, lengthGrad, change, rigid, kkt, 0);
-    if (kkt.inertia.negative !== cells + kkt.rigidRows) {
-      s.raised = true;
-      s.tau = raise(s.tau);
-      continue;
-    }
-    solveStepInto(problem, kkt, order, direction, lambda);
-    // without rigid rows the step may carry a rigid motion (large where the shift is small): take it out
-    if (kkt.rigidRows === 0) {
-      for (let m = 0; m < 3; m++) {
-        const o = m * t0;
-        let dot = 0;
-        for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
-        for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
-      }
-    }
-    // the merit's multipliers: the new pressures, kept within the physical bound
-    for (let f = 0; f < cells; f++) {
-      const l = lambda[f];
-      lambda[f] = l > cap ? cap : l < -cap ? -cap : l;
-    }
-    // slope and curvature of Phi(.; lambda) along d, from the step's equations (J d = r)
-    let gd = 0;
-    let dd = 0;
-    for (let i = 0; i < dim; i++) {
-      gd += lengthGrad[i] * direction[i];
-      dd += shift[i] * direction[i] * direction[i];
-    }
-    let lr = 0;
-    let q = 0;
-    let rr = 0;
-    for (let f = 0; f < cells; f++) {
-      const r = change[f];
-      lr += lambda[f] * r;
-      q += ((targets[f] - areas[f]) * r) / targets[f];
-      rr += (r * r) / targets[f];
-    }
-    // slope = grad P . d - lambda . J d - kappa sum (T - A) J d / T with J d = r; d^T B d = -grad P . d
-    // + (unclamped lambda) . r, which the curvature approximates with the clamped one
-    const dbd = kkt.rigidRows === 0 ? stepCurvature(problem, cache, hessianPressures, s.tau, shift, direction) : -gd + lr;
-    // Is d not downhill on Phi(.; lambda)? Weigh the areas more (q > 0 whenever r is not 0).
-    if (gd - lr - s.kappa * q >= 0 && q > ROUNDING && s.kappa < KAPPA_MAX) {
-      s.kappa = Math.min(KAPPA_MAX, Math.max(2 * s.kappa, (2 * (gd - lr)) / q));
-    }
-    const { kappa, tau } = s;
-    const slope = gd - lr - kappa * q;
-    const curvature = dbd - tau * dd + kappa * rr;
-    const phiHere = meritOf(s.perimeter, areas, targets, lambda, kappa, cells);
-    const alpha = stepLength(problem, opt, direction) * s.cut;
-    if (!Number.isFinite(alpha) || !Number.isFinite(slope)) return 'failed';
-    const noise = ROUNDING * (Math.abs(phiHere) + 1);
-    // Is the model flat to the rounding of Phi? Then Phi cannot judge the step: Newton's step is
-    // taken as it is (it only polishes the last digits of an equilibrium).
-    const flat = Math.abs(slope) <= noise && Math.abs(curvature) <= noise;
-    if (!(slope < 0) && !flat) {
-      s.tau = raise(tau);
-      continue;
-    }
-    const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
-    for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
-    if (admissible(problem, trial, chords)) {
-      s.perimeterTrial = perimeterInto(problem, trial, cache, trialAreas);
-      s.phiTrial = meritOf(s.perimeterTrial, trialAreas, targets, lambda, kappa, cells);
-      const change = s.phiTrial - phiHere;
-      const rho = predicted < 0 ? change / predicted : 0;
-      if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
-        if ((flat || rho > GOOD) && s.cut === 1 && !s.raised) {
-          s.tau = Math.max(TAU_MIN, tau * LOWER);
-          s.grow = Math.min(GROW_MAX, s.grow * GROW_UP);
-        } else if (rho < POOR) {
-          s.tau = raise(tau);
-          s.grow = Math.max(GROW, s.grow / GROW_UP);
-        }
-        return 'accepted';
-      }
-    }
-    s.tau = raise(tau);
-    s.grow = Math.max(GROW, s.grow / GROW_UP);
-    s.cut *= 0.5;
+  const order = factorStepInto(problem, z, cache, hessianPressures, s.tau, shift, lengthGrad, change, rigid, kkt, 0);
+  if (kkt.inertia.negative !== cells + kkt.rigidRows) {
+    s.raised = true;
+    s.tau = raise(s.tau);
+    return 'raised';
   }
-  return 'refused';
+  solveStepInto(problem, kkt, order, direction, lambda);
+  // without rigid rows the step may carry a rigid motion (large where the shift is small): take it out
+  if (kkt.rigidRows === 0) {
+    for (let m = 0; m < 3; m++) {
+      const o = m * t0;
+      let dot = 0;
+      for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
+      for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
+    }
+  }
+  // the merit's multipliers: the new pressures, kept within the physical bound
+  for (let f = 0; f < cells; f++) {
+    const l = lambda[f];
+    lambda[f] = l > cap ? cap : l < -cap ? -cap : l;
+  }
+  // slope and curvature of Phi(.; lambda) along d, from the step's equations (J d = r)
+  let gd = 0;
+  let dd = 0;
+  for (let i = 0; i < dim; i++) {
+    gd += lengthGrad[i] * direction[i];
+    dd += shift[i] * direction[i] * direction[i];
+  }
+  let lr = 0;
+  let q = 0;
+  let rr = 0;
+  for (let f = 0; f < cells; f++) {
+    const r = change[f];
+    lr += lambda[f] * r;
+    q += ((targets[f] - areas[f]) * r) / targets[f];
+    rr += (r * r) / targets[f];
+  }
+  // slope = grad P . d - lambda . J d - kappa sum (T - A) J d / T with J d = r; d^T B d = -grad P . d
+  // + (unclamped lambda) . r, which the curvature approximates with the clamped one
+  const dbd = kkt.rigidRows === 0 ? stepCurvature(problem, cache, hessianPressures, s.tau, shift, direction) : -gd + lr;
+  // Is d not downhill on Phi(.; lambda)? Weigh the areas more (q > 0 whenever r is not 0).
+  if (gd - lr - s.kappa * q >= 0 && q > ROUNDING && s.kappa < KAPPA_MAX) {
+    s.kappa = Math.min(KAPPA_MAX, Math.max(2 * s.kappa, (2 * (gd - lr)) / q));
+  }
+  const { kappa, tau } = s;
+  const slope = gd - lr - kappa * q;
+  const curvature = dbd - tau * dd + kappa * rr;
+  const phiHere = meritOf(s.perimeter, areas, targets, lambda, kappa, cells);
+  const alpha = stepLength(problem, opt, direction) * s.cut;
+  if (!Number.isFinite(alpha) || !Number.isFinite(slope)) return 'failed';
+  const noise = ROUNDING * (Math.abs(phiHere) + 1);
+  // Is the model flat to the rounding of Phi? Then Phi cannot judge the step: Newton's step is
+  // taken as it is (it only polishes the last digits of an equilibrium).
+  const flat = Math.abs(slope) <= noise && Math.abs(curvature) <= noise;
+  if (!(slope < 0) && !flat) {
+    s.tau = raise(tau);
+    return 'raised';
+  }
+  const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
+  for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
+  if (admissible(problem, trial, chords)) {
+    s.perimeterTrial = perimeterInto(problem, trial, cache, trialAreas);
+    s.phiTrial = meritOf(s.perimeterTrial, trialAreas, targets, lambda, kappa, cells);
+    const change = s.phiTrial - phiHere;
+    const rho = predicted < 0 ? change / predicted : 0;
+    if (flat || (change < 0 && rho >= ACCEPT) || (-predicted <= noise && change <= noise)) {
+      if ((flat || rho > GOOD) && s.cut === 1 && !s.raised) {
+        s.tau = Math.max(TAU_MIN, tau * LOWER);
+        s.grow = Math.min(GROW_MAX, s.grow * GROW_UP);
+      } else if (rho < POOR) {
+        s.tau = raise(tau);
+        s.grow = Math.max(GROW, s.grow / GROW_UP);
+      }
+      return 'accepted';
+    }
+  }
+  s.tau = raise(tau);
+  s.grow = Math.max(GROW, s.grow / GROW_UP);
+  s.cut *= 0.5;
+  return 'cut';
 }
 
 // The longest step along d the caps allow: bulges by maxBulgeStep, junction moves by maxMoveStep.
@@ -369,10 +389,11 @@ function stepLength(problem: ClusterProblem, opt: ResolvedNewtonOptions, directi
   return alpha;
 }
 
-// Take the accepted step: the trial becomes the iterate, the step's pressures the merit's multipliers.
-function takeStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
+/** Take the accepted step: the trial becomes the iterate, the step's pressures the merit's multipliers. */
+export function takeStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
   const { cells, walls } = problem;
-  const { targets, mult, lambda, areas, trialAreas, cache, mu, grad, lengthGrad, chords } = ws;
+  const { targets, mult, lambda, areas, trialAreas, mu, grad, lengthGrad, chords } = ws;
+  const { cache } = s;
   for (let f = 0; f < cells; f++) {
     mult[f] = lambda[f];
     areas[f] = trialAreas[f];
