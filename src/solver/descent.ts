@@ -110,6 +110,8 @@ export interface DescentState {
   trial: Float64Array;
   /** The wall records (perimeterInto) of z: what the step's matrix and the collapse watch read. */
   cache: Float64Array;
+  /** The wall records of the trial state (swapped with cache when a step is taken). */
+  trialCache: Float64Array;
   perimeter: number;
   phi: number;
   gmax: number;
@@ -157,9 +159,8 @@ export function descend(
     prepareStep(problem, ws, s);
     const outcome = tryStep(problem, ws, opt, s);
     if (outcome !== 'accepted') {
-      // restore the records at z and stop: no admissible step lowers Phi
+      // stop: no admissible step lowers Phi (the gradient again, at the last kappa)
       const { targets, mult, areas, mu, grad, lengthGrad } = ws;
-      s.perimeter = perimeterInto(problem, s.z, s.cache, areas);
       s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, s.cache, areas, mu, grad, lengthGrad);
       end = outcome === 'failed' ? 'non-finite' : atFloor(problem, ws, s) ? 'settled' : 'stalled';
       break;
@@ -167,6 +168,7 @@ export function descend(
     takeStep(problem, ws, s);
   }
   if (s.z !== ws.z) ws.z.set(s.z.subarray(0, dim));
+  if (s.cache !== ws.cache) ws.cache.set(s.cache);
   for (let f = 0; f < cells; f++) ws.z[dim + f] = ws.mu[f];
   const wall = shortestWallOf(problem, ws.cache, ws.targets);
   return { end, iterations: s.iterations, wall, chord: relativeLengthOf(problem, ws.cache, ws.targets, wall) };
@@ -184,7 +186,7 @@ export function startDescent(problem: ClusterProblem, ws: Workspace, warm: boole
   const gmax = penaltyGradientInto(problem, z, targets, mult, kappa, cache, areas, mu, grad, lengthGrad);
   for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
   return {
-    z, trial: ws.trial, cache, perimeter, phi, gmax, violation: violationOf(areas, targets, cells), perimeterTrial: perimeter,
+    z, trial: ws.trial, cache, trialCache: ws.trialCache, perimeter, phi, gmax, violation: violationOf(areas, targets, cells), perimeterTrial: perimeter,
     phiTrial: phi, kappa, tau: warm ? TAU_MIN : TAU_START, grow: GROW, cut: 1, raised: false, cap: Infinity,
     floorBest: Infinity, floorSteps: 0, iterations: 0,
   };
@@ -282,7 +284,7 @@ export function attemptStep(
   const { cells, junctions, walls } = problem;
   const t0 = 2 * junctions;
   const dim = t0 + walls;
-  const { z, trial, cache, cap } = s;
+  const { z, trial, cache, trialCache, cap } = s;
   const {
     targets, lambda, areas, trialAreas, shift, direction, chords, rigid, change, hessianPressures, lengthGrad, kkt,
   } = ws;
@@ -347,7 +349,7 @@ export function attemptStep(
   const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
   for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
   if (admissible(problem, trial, chords)) {
-    s.perimeterTrial = perimeterInto(problem, trial, cache, trialAreas);
+    s.perimeterTrial = perimeterInto(problem, trial, trialCache, trialAreas);
     s.phiTrial = meritOf(s.perimeterTrial, trialAreas, targets, lambda, kappa, cells);
     const change = s.phiTrial - phiHere;
     const rho = predicted < 0 ? change / predicted : 0;
@@ -393,7 +395,6 @@ function stepLength(problem: ClusterProblem, opt: ResolvedNewtonOptions, directi
 export function takeStep(problem: ClusterProblem, ws: Workspace, s: DescentState): void {
   const { cells, walls } = problem;
   const { targets, mult, lambda, areas, trialAreas, mu, grad, lengthGrad, chords } = ws;
-  const { cache } = s;
   for (let f = 0; f < cells; f++) {
     mult[f] = lambda[f];
     areas[f] = trialAreas[f];
@@ -401,11 +402,14 @@ export function takeStep(problem: ClusterProblem, ws: Workspace, s: DescentState
   const swap = s.z;
   s.z = s.trial;
   s.trial = swap;
+  const records = s.cache;
+  s.cache = s.trialCache;
+  s.trialCache = records;
   s.perimeter = s.perimeterTrial;
   s.phi = s.phiTrial;
-  s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, cache, areas, mu, grad, lengthGrad);
+  s.gmax = penaltyGradientInto(problem, s.z, targets, mult, s.kappa, s.cache, areas, mu, grad, lengthGrad);
   s.violation = violationOf(areas, targets, cells);
-  for (let k = 0; k < walls; k++) chords[k] = cache[k * WALL_STRIDE + W_C];
+  for (let k = 0; k < walls; k++) chords[k] = s.cache[k * WALL_STRIDE + W_C];
 }
 
 // Whether the gradient's rounding floor at the state of the cache lies above CLOSE (see FLOOR_ULPS).

@@ -150,7 +150,7 @@ export function assembleStepInto(
     const b = 2 * ends[k];
     addChordBlock(problem, kw, n, k, jumpOf(problem, k, mu));
     // the wall's area gradient: dQ/da, dQ/db (Q added to the left cell, taken from the right one)
-    // NOTE: taken at the junctions of z with the records' chords: the records must be z's
+    // (at the junctions of z with the records' chords: the records must be z's, as descend keeps them)
     areaGradientInto(cache, k, z, a, b, AREA);
     addAreaRows(problem, matrix, n, p0, k, AREA);
     if (slots[k] >= 0) addKeptBulge(problem, kw, n, p0, k, AREA, tau, shift, lengthGrad);

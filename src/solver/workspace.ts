@@ -49,6 +49,8 @@ export interface Workspace {
   direction: Float64Array;
   /** Per-wall cache of the perimeter pass, E * WALL_STRIDE. */
   cache: Float64Array;
+  /** The same at the trial state of a step, E * WALL_STRIDE. */
+  trialCache: Float64Array;
   /** Chord of every wall at z, length E. */
   chords: Float64Array;
   /** The three rigid motions of the junctions, 3 * 2V. */
@@ -87,6 +89,7 @@ export function workspaceFor(problem: ClusterProblem): Workspace {
       shift: new Float64Array(dim),
       direction: new Float64Array(dim),
       cache: new Float64Array(walls * WALL_STRIDE),
+      trialCache: new Float64Array(walls * WALL_STRIDE),
       chords: new Float64Array(walls),
       rigid: new Float64Array(6 * junctions),
       kkt: kktWorkspace(problem),
