@@ -56,7 +56,7 @@ const SPREAD = 6;
 // Targets more than EXTREME apart that a descent did not bring to an equilibrium are approached from
 // targets MODERATE apart, STAGE times further apart at each stage (approachInRatio).
 const EXTREME = 1e4;
-const MODERATE = 1e3;
+const MODERATE = 1e2;
 const STAGE = 10;
 
 interface Attempt {
