@@ -63,28 +63,25 @@ export function facePairsInto(
  */
 export function deleteWallInto(twins: Int32Array, alive: Uint8Array, e: number, records: Int32Array, r: number): void {
   const t = twins[e];
-  const a1 = e % 3 === 2 ? e - 2 : e + 1;
-  const a2 = e % 3 === 0 ? e + 2 : e - 1;
-  const x1 = twins[a1];
-  const x2 = twins[a2];
-  twins[x1] = x2;
-  twins[x2] = x1;
-  const b1 = t % 3 === 2 ? t - 2 : t + 1;
-  const b2 = t % 3 === 0 ? t + 2 : t - 1;
-  const y1 = twins[b1];
-  const y2 = twins[b2];
-  twins[y1] = y2;
-  twins[y2] = y1;
-  alive[(e / 3) | 0] = 0;
-  alive[(t / 3) | 0] = 0;
   records[r + R_E] = e;
   records[r + R_T] = t;
-  records[r + R_A1] = a1;
-  records[r + R_A2] = a2;
-  records[r + R_X1] = x1;
-  records[r + R_X2] = x2;
-  records[r + R_B1] = b1;
-  records[r + R_B2] = b2;
-  records[r + R_Y1] = y1;
-  records[r + R_Y2] = y2;
+  smoothInto(twins, e, records, r + R_A1);
+  smoothInto(twins, t, records, r + R_B1);
+  alive[(e / 3) | 0] = 0;
+  alive[(t / 3) | 0] = 0;
+}
+
+// Smooth the junction of dart d (whose wall is being deleted): its other darts d1 = next(d), d2 =
+// prev(d) and their twins (read now) into records[o .. o + 4), and the twins joined into one wall.
+function smoothInto(twins: Int32Array, d: number, records: Int32Array, o: number): void {
+  const d1 = d % 3 === 2 ? d - 2 : d + 1;
+  const d2 = d % 3 === 0 ? d + 2 : d - 1;
+  const x1 = twins[d1];
+  const x2 = twins[d2];
+  twins[x1] = x2;
+  twins[x2] = x1;
+  records[o] = d1;
+  records[o + 1] = d2;
+  records[o + 2] = x1;
+  records[o + 3] = x2;
 }
