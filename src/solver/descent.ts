@@ -20,7 +20,7 @@
 // reason. A step may not shrink any chord below SHRINK times its length, so a wall on its way to zero
 // is seen going there (the T1 collapse the arrangement wants) instead of being jumped across.
 
-import { factorStepInto, rigidInto, solveStepInto, stepCurvature } from './kkt.ts';
+import { factorStepInto, removeRigidInto, rigidInto, solveStepInto, stepCurvature } from './kkt.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
 import { fitPressuresInto, meritOf, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
@@ -296,14 +296,7 @@ export function attemptStep(
   }
   solveStepInto(problem, kkt, order, direction, lambda);
   // without rigid rows the step may carry a rigid motion (large where the shift is small): take it out
-  if (kkt.rigidRows === 0) {
-    for (let m = 0; m < 3; m++) {
-      const o = m * t0;
-      let dot = 0;
-      for (let i = 0; i < t0; i++) dot += rigid[o + i] * direction[i];
-      for (let i = 0; i < t0; i++) direction[i] -= dot * rigid[o + i];
-    }
-  }
+  if (kkt.rigidRows === 0) removeRigidInto(direction, rigid, junctions);
   // the merit's multipliers: the new pressures, kept within the physical bound
   for (let f = 0; f < cells; f++) {
     const l = lambda[f];
