@@ -23,14 +23,14 @@ import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
 import { descend } from './descent.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
-import { type ClusterProblem, problemOf } from './problem.ts';
+import { type ClusterProblem, problemOf, withTensions } from './problem.ts';
 import { curvaturePressuresInto } from './pressures.ts';
 import { perimeterInto } from './wall-terms.ts';
 import type { Equilibrium } from './result.ts';
 import { shrinkSmallCellsInto } from './small-cells.ts';
 import { centreLensInto, lensHostOf } from './family.ts';
 import { stabilityOf } from './stability.ts';
-import { OK, type Verdict, collapseOf, ordersHold, shortestWall } from './verdict.ts';
+import { OK, type Verdict, collapseOf, ordersHold, shortestWall, unbalancedJunctionOf } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
 import { mulberry32 } from '../random.ts';
 
@@ -183,6 +183,7 @@ function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
   const result: Equilibrium = {
     status: 'ok',
     perimeter: 2 * Math.PI * radius,
+    energy: 2 * Math.PI * radius,
     pressures: Float64Array.of(1 / radius),
     coords: new Float64Array(0),
     bulges: new Float64Array(0),
@@ -195,16 +196,22 @@ function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
     zeroModes: 0,
     collapsingWall: null,
     collapsingCell: null,
+    unbalancedJunction: null,
+    junctionTensions: null,
   };
   result.certificate = checkEquilibrium(map, areas, result);
   return result;
 }
 
-// Check the map and the areas at the public boundary.
-function checkInput(map: CubicMap, areas: Float64Array): void {
+// Check the map, the areas and the tensions' count at the public boundary.
+function checkInput(map: CubicMap, areas: Float64Array, opt: ResolvedNewtonOptions): void {
   const cells = map.faceCount - 1;
   if (areas.length !== cells) {
     throw new UsageError(`Got ${areas.length} areas when expected ${cells}, one per cell.`);
+  }
+  const walls = map.twins.length / 2;
+  if (opt.tensions !== null && opt.tensions.length !== walls) {
+    throw new UsageError(`Got ${opt.tensions.length} tensions when expected ${walls}, one per wall.`);
   }
   for (let i = 0; i < cells; i++) {
     if (!(areas[i] > 0) || !Number.isFinite(areas[i])) {
@@ -231,13 +238,16 @@ function normaliseTargets(problem: ClusterProblem, ws: Workspace, areas: Float64
  */
 export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOptions): Equilibrium {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
+  checkInput(map, areas, opt);
   if (map.junctionCount === 0) return circleAnswer(map, areas);
-  const problem = problemOf(map);
+  const problem = withTensions(problemOf(map), opt.tensions);
   const { cells } = problem;
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   const first = drawStart(map, problem, ws, 'auto');
+  // Can every junction balance its three tensions? If not, no relaxation can end: say so at once.
+  const unbalanced = unbalancedJunctionOf(problem);
+  if (unbalanced >= 0) return unbalancedAnswer(map, problem, ws, areas, unit, opt, unbalanced);
   shrinkSmallCells(problem, ws);
   // how far the start's areas are from the targets, and the targets from each other (largest factors)
   perimeterInto(problem, ws.z, ws.cache, ws.areas);
@@ -462,9 +472,10 @@ export function relaxFrom(
   map: CubicMap, areas: Float64Array, start: EquilibriumStart, options?: NewtonOptions,
 ): Equilibrium {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
+  checkInput(map, areas, opt);
   if (map.junctionCount === 0) return circleAnswer(map, areas);
-  const problem = problemOf(map);
+  const problem = withTensions(problemOf(map), opt.tensions);
+  if (unbalancedJunctionOf(problem) >= 0) return relax(map, areas, options);
   const { junctions, walls, cells } = problem;
   if (start.coords.length !== 2 * junctions || start.bulges.length !== walls || start.pressures.length !== cells) {
     throw new UsageError(
@@ -501,11 +512,25 @@ function loadStart(problem: ClusterProblem, ws: Workspace, start: EquilibriumSta
 
 const FACTORS = new Float64Array(BULGE_FACTORS);
 
+// The answer for a junction whose tensions cannot balance: the first drawing in ws.z, named.
+function unbalancedAnswer(
+  map: CubicMap, problem: ClusterProblem, ws: Workspace, areas: Float64Array, unit: number,
+  opt: ResolvedNewtonOptions, junction: number,
+): Equilibrium {
+  const answer = answerOf(map, problem, ws, areas, unit, opt, { verdict: NO_CONVERGENCE, iterations: 0 }, 0);
+  const tensions = problem.tensions as Float64Array;
+  const { wallOf } = problem;
+  answer.status = 'junction-unbalanced';
+  answer.unbalancedJunction = junction;
+  answer.junctionTensions = [tensions[wallOf[3 * junction]], tensions[wallOf[3 * junction + 1]], tensions[wallOf[3 * junction + 2]]];
+  return answer;
+}
+
 function answerOf(
   map: CubicMap, problem: ClusterProblem, ws: Workspace, areas: Float64Array, unit: number,
   opt: ResolvedNewtonOptions, attempt: Attempt, restarts: number,
 ): Equilibrium {
-  const { junctions, walls, cells, starts, ends } = problem;
+  const { junctions, walls, cells, starts, ends, tensions } = problem;
   const z = ws.z;
   const t0 = 2 * junctions;
   const p0 = t0 + walls;
@@ -523,12 +548,15 @@ function answerOf(
   if (attempt.verdict.status === 'ok') curvaturePressuresInto(problem, z, ws.targets, z.subarray(p0, p0 + cells), ws.normal, ws.pivots, ws.row, ws.lambda);
   for (let f = 0; f < cells; f++) pressures[f] = z[p0 + f] / unit;
   let perimeter = 0;
+  let energy = 0;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
     const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
     bulgeFactorsInto(z[t0 + k], FACTORS);
-    perimeter += c * FACTORS[G] * unit;
+    const length = c * FACTORS[G] * unit;
+    perimeter += length;
+    if (tensions !== null) energy += tensions[k] * length;
     curvatures[k] = c > 0 ? (2 * Math.sin(z[t0 + k])) / (c * unit) : 0;
   }
   perimeterInto(problem, z, ws.cache, achieved);
@@ -537,6 +565,7 @@ function answerOf(
   const answer: Equilibrium = {
     status: verdict.status,
     perimeter,
+    energy: tensions === null ? perimeter : energy,
     pressures,
     coords,
     bulges,
@@ -544,11 +573,13 @@ function answerOf(
     areas: achieved,
     iterations: attempt.iterations,
     restarts,
-    certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }),
+    certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }, tensions),
     index: null,
     zeroModes: null,
     collapsingWall: verdict.wall,
     collapsingCell: verdict.cell,
+    unbalancedJunction: null,
+    junctionTensions: null,
   };
   if (answer.status === 'ok') {
     const c = answer.certificate;
@@ -570,6 +601,7 @@ function answerOf(
   }
   // never NaN: a non-finite number anywhere means the state is unusable
   if (!Number.isFinite(answer.perimeter)) answer.perimeter = 0;
+  if (!Number.isFinite(answer.energy)) answer.energy = 0;
   for (const arr of [coords, bulges, pressures, curvatures, achieved]) {
     for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) arr[i] = 0;
   }
