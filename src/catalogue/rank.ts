@@ -15,6 +15,7 @@ import { withPool } from './pool.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import { DEFAULT_STARTS, type FoundEquilibrium } from '../solver/equilibria.ts';
 import type { Equilibrium } from '../solver/result.ts';
+import type { CellTyping } from '../solver/tensions.ts';
 import { type AreaClasses, areaClasses, orbitCount, userIndices } from './assign.ts';
 import { type CandidateResult, type ClusterTask, evaluateCluster } from './evaluate.ts';
 import { type ArrangementFilter, checkFilter, isFiltering, passesFilter } from './filter.ts';
@@ -54,6 +55,11 @@ export interface RankOptions {
   onProgress?: (done: number, total: number) => void;
   /** Options of the relaxer. */
   newton?: NewtonOptions;
+  /**
+   * Cell types and the tensions between them (walls of different tension): cells of one type with
+   * equal areas are one class, and the ranking is by energy. @default untyped, every tension 1
+   */
+  typing?: CellTyping;
 }
 
 /**
@@ -171,7 +177,11 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
   const seed = options.seed ?? 1;
   const starts = startCount(options.starts);
   const unstable = options.unstable === true;
-  const classes = areaClasses([...areas]);
+  const typing = options.typing;
+  if (typing !== undefined && typing.types.length !== n) {
+    throw new UsageError(`Got ${typing.types.length} types when expected ${n}, one per area.`);
+  }
+  const classes = areaClasses([...areas], typing?.types);
 
   // enumerate, keep the filtered arrangements, and check the rooting identity on all of them
   const planned: Planned[] = [];
@@ -200,6 +210,7 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
     // (starts left to the search's default when not asked for: the default tries its later starts only
     // where the first gives no verdict, solver/equilibria.ts DEFAULT_STARTS)
     cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton, search: { starts: options.starts, unstable },
+    ...(typing === undefined ? {} : { tensions: typing.table }),
   }));
   return {
     query: { areas: [...areas], filter, budgetSeconds, seed, starts, unstable },

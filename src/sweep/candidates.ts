@@ -44,25 +44,30 @@ export interface CandidateSet {
 }
 
 /**
- * The formula classes: slots with the same parsed formula (AreaFormula.key) share a class, numbered
- * by first appearance. `values` holds the class's first slot index (areas come from the formulas).
+ * The formula classes: slots with the same parsed formula (AreaFormula.key), and the same type when
+ * `types` (one per slot) is given, share a class, numbered by first appearance. `values` holds the
+ * class's first slot index (areas come from the formulas).
  */
-export function formulaClasses(formulas: readonly AreaFormula[]): AreaClasses {
+export function formulaClasses(formulas: readonly AreaFormula[], types?: readonly number[]): AreaClasses {
+  const keyOf = (i: number): string => (types === undefined ? formulas[i].key : `${formulas[i].key}|${types[i]}`);
   const keys: string[] = [];
-  const classOf = formulas.map((f) => {
-    let k = keys.indexOf(f.key);
-    if (k < 0) k = keys.push(f.key) - 1;
+  const classOf = formulas.map((_, i) => {
+    let k = keys.indexOf(keyOf(i));
+    if (k < 0) k = keys.push(keyOf(i)) - 1;
     return k;
   });
-  const values = keys.map((key) => formulas.findIndex((f) => f.key === key));
+  const values = keys.map((key) => formulas.findIndex((_, i) => keyOf(i) === key));
   const multiplicity = keys.map((_, k) => classOf.filter((c) => c === k).length);
   return { values, multiplicity, classOf };
 }
 
-/** Every candidate of a sweep over `formulas` (one per cell), arrangements in enumeration order. */
-export function sweepCandidates(formulas: readonly AreaFormula[], filter: ArrangementFilter = {}): CandidateSet {
+/**
+ * Every candidate of a sweep over `formulas` (one per cell; `types`: one type per formula, when typed),
+ * arrangements in enumeration order.
+ */
+export function sweepCandidates(formulas: readonly AreaFormula[], filter: ArrangementFilter = {}, types?: readonly number[]): CandidateSet {
   const n = formulas.length;
-  const classes = formulaClasses(formulas);
+  const classes = formulaClasses(formulas, types);
   const candidates: SweepCandidate[] = [];
   const ids = new Map<string, string>();
   let enumerated = 0;
