@@ -21,8 +21,17 @@ export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
   };
 }
 
-/** The drawing of a relaxer answer (for a failure: where the solve stopped). */
-export function equilibriumDrawing(cluster: Cluster, areas: Float64Array, eq: Equilibrium, title: string): ClusterDrawing {
+/**
+ * The drawing of a relaxer answer (for a failure: where the solve stopped); with `typed`, its cells'
+ * types and walls' tensions (the caption then gives the energy).
+ */
+export function equilibriumDrawing(
+  cluster: Cluster, areas: Float64Array, eq: Equilibrium, title: string,
+  typed?: { cellTypes: ArrayLike<number>; typeLabels: readonly string[]; tensions: Float64Array | null },
+): ClusterDrawing {
+  const caption = typed?.tensions
+    ? `energy ${eq.energy.toPrecision(10)}, length ${eq.perimeter.toPrecision(10)}  (${eq.status})`
+    : `perimeter ${eq.perimeter.toPrecision(10)}  (${eq.status})`;
   return {
     map: cluster.map,
     coords: eq.coords,
@@ -30,6 +39,8 @@ export function equilibriumDrawing(cluster: Cluster, areas: Float64Array, eq: Eq
     areas,
     pressures: eq.pressures,
     title,
-    caption: `perimeter ${eq.perimeter.toPrecision(10)}  (${eq.status})`,
+    caption,
+    ...(typed === undefined ? {} : { cellTypes: typed.cellTypes, typeLabels: typed.typeLabels }),
+    ...(typed?.tensions ? { tensions: typed.tensions } : {}),
   };
 }
