@@ -99,6 +99,7 @@ export function regionTable(s: RegionSweep): string[] {
   const lines = [
     `${plural(s.formulas.length, 'cell')}, areas ${s.formulas.map((f) => f.source).join(', ')}; ${where}: ` +
       `${plural(s.counts.arrangements, 'arrangement')}, ${plural(s.counts.candidates, 'candidate')}, ${relaxationText(s)}`,
+    ...(s.typing === undefined ? [] : [typingText(s.typing)]),
     '',
     'regions (connected samples with one winner)',
   ];

@@ -28,6 +28,8 @@ export interface SweepCandidate {
   readonly slots: readonly number[];
   /** The formula of each cell, as typed. */
   readonly cellFormulas: readonly string[];
+  /** The type label of each cell, when the sweep is typed. */
+  readonly cellTypes?: readonly string[];
   /** Tie-break key after perimeter and code: the slots joined by commas. */
   readonly assignmentKey: string;
 }
@@ -65,9 +67,11 @@ export function formulaClasses(formulas: readonly AreaFormula[], types?: readonl
  * Every candidate of a sweep over `formulas` (one per cell; `types`: one type per formula, when typed),
  * arrangements in enumeration order.
  */
-export function sweepCandidates(formulas: readonly AreaFormula[], filter: ArrangementFilter = {}, types?: readonly number[]): CandidateSet {
+export function sweepCandidates(
+  formulas: readonly AreaFormula[], filter: ArrangementFilter = {}, typing?: { types: readonly number[]; labels: readonly string[] },
+): CandidateSet {
   const n = formulas.length;
-  const classes = formulaClasses(formulas, types);
+  const classes = formulaClasses(formulas, typing?.types);
   const candidates: SweepCandidate[] = [];
   const ids = new Map<string, string>();
   let enumerated = 0;
@@ -89,6 +93,7 @@ export function sweepCandidates(formulas: readonly AreaFormula[], filter: Arrang
         sides: summary.sides,
         slots,
         cellFormulas: slots.map((k) => formulas[k].source),
+        ...(typing === undefined ? {} : { cellTypes: slots.map((k) => typing.labels[typing.types[k]]) }),
         assignmentKey: slots.join(','),
       });
     }
@@ -103,9 +108,10 @@ export function candidateAreasInto(candidate: SweepCandidate, slotValues: ArrayL
   return out;
 }
 
-/** Readable "which formula sits in which cell", e.g. "1:1 2:1 3:1 4:t". */
+/** Readable "which formula sits in which cell", e.g. "1:1 2:1 3:1 4:t" (typed: "1:1a 2:1a 3:2b 4:2b"). */
 export function cellFormulasText(candidate: SweepCandidate): string {
-  return candidate.cellFormulas.map((f, i) => `${i + 1}:${f.replace(/\s+/g, '')}`).join(' ');
+  const types = candidate.cellTypes;
+  return candidate.cellFormulas.map((f, i) => `${i + 1}:${f.replace(/\s+/g, '')}${types === undefined ? '' : types[i]}`).join(' ');
 }
 
 /**

@@ -72,7 +72,7 @@ export function prepareSweep(
   if (typing !== undefined && typing.types.length !== formulas.length) {
     throw new UsageError(`Got ${typing.types.length} types when expected ${formulas.length}, one per area.`);
   }
-  const set = sweepCandidates(formulas, options.filter, typing?.types);
+  const set = sweepCandidates(formulas, options.filter, typing);
   const { candidates } = set;
   const points = domainSamples(domain);
   const count = points.count;

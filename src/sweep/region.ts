@@ -128,6 +128,7 @@ export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain
     winnerStates: winners.map((w, k) => (w === null ? null : states[w][k])),
     regions: regionsOf(winners, neighbours, points.values, points.names.length),
     counts: { enumerated: set.enumerated, arrangements: set.arrangements, candidates: candidates.length, relaxations: counts },
+    ...(options.typing === undefined ? {} : { typing: options.typing }),
   };
 }
 

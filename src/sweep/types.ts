@@ -156,4 +156,6 @@ export interface RegionSweep {
   readonly winnerStates: (TrackedState | null)[];
   readonly regions: Region[];
   readonly counts: SweepCounts;
+  /** The cell types and tensions of the sweep, when typed (every `perimeter` is then an energy). */
+  readonly typing?: SweepTyping;
 }

@@ -90,7 +90,8 @@ export function run(): number {
         .map(([k, v]) => `${k} ${v}`)
         .join(', ');
       console.log(
-        `n=${n} ${family.padEnd(7)} ${maps.length} clusters: ${(maps.length / best).toFixed(0)} answers/s ` +
+        `n=${n} ${family.padEnd(7)} ${maps.length} clusters: ${(maps.length / best).toFixed(0)} answers/s, ` +
+          `${((okIterations + failIterations) / best).toFixed(0)} Newton iterations/s ` +
           `(${stats(times)}), certified ${ok} (mean iterations ${ok ? (okIterations / ok).toFixed(1) : '-'}), ` +
           `failures ${failed}: ${failures || 'none'} (mean iterations ${failed ? (failIterations / failed).toFixed(1) : '-'}), ` +
           `second drawings ${restarts}`,
