@@ -4,8 +4,17 @@ import type { CatalogueEntry } from '../catalogue/types.ts';
 import { entryDrawing } from '../render/entry.ts';
 import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
 import { UsageError } from '../errors.ts';
+import { type CellTyping, wallTensions } from '../solver/tensions.ts';
+import type { ClusterDrawing } from '../render/types.ts';
 
 export { entryDrawing, equilibriumDrawing } from '../render/entry.ts';
+
+/** A drawing with the types of its cells (cell i + 1 holds the query's area assignment[i]) and its walls' tensions. */
+export function typedDrawing(drawing: ClusterDrawing, assignment: readonly number[], typing: CellTyping): ClusterDrawing {
+  const cellTypes = assignment.map((i) => typing.types[i]);
+  const tensions = wallTensions(drawing.map, cellTypes, typing.table);
+  return { ...drawing, cellTypes, typeLabels: typing.table.labels, ...(tensions === null ? {} : { tensions }) };
+}
 
 /** Most drawings on the contact sheet of `rank --sheet` and `merge --sheet` (the top ranks, fewer with a smaller --top). */
 export const SHEET_LIMIT = 12;
@@ -21,18 +30,19 @@ export function checkSheetTop(top: number, topGiven: boolean, sheet: string | un
 }
 
 /**
- * A contact sheet of catalogue entries with geometry, captioned with rank, id, perimeter and index; a
- * saddle (index >= 1) is marked as such (render/sheet.ts SheetItem.saddle).
+ * A contact sheet of catalogue entries with geometry, captioned with rank, id, perimeter and index;
+ * a saddle (index >= 1) is marked as such (render/sheet.ts SheetItem.saddle); with `typing` (the query's cell types), cells are filled by type and walls carry their tensions.
  */
-export function entriesSheet(entries: CatalogueEntry[], title: string): string {
+export function entriesSheet(entries: CatalogueEntry[], title: string, typing?: CellTyping): string {
   const items: SheetItem[] = [];
   for (const e of entries) {
-    const drawing = entryDrawing(e);
-    if (drawing === null) continue;
+    const plain = entryDrawing(e);
+    if (plain === null) continue;
+    const drawing = typing === undefined ? plain : typedDrawing(plain, e.assignment, typing);
     items.push({
       drawing, rank: e.rank ?? undefined, id: e.id, perimeter: e.perimeter ?? undefined,
       note: e.index === null ? undefined : `index ${e.index}`, saddle: e.index !== null && e.index > 0,
     });
   }
-  return renderContactSheet(items, { title });
+  return renderContactSheet(items, { title, ...(typing === undefined ? {} : { tensions: true }) });
 }

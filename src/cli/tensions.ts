@@ -3,6 +3,7 @@
 import { InvalidArgumentError } from 'commander';
 import { UsageError } from '../errors.ts';
 import { type CellTyping, type TensionSetting, cellTyping } from '../solver/tensions.ts';
+import { findExample } from '../catalogue/examples.ts';
 
 /** One --tension item as typed: the two types and the value's text (a number, or a formula for sweep). */
 export interface TensionText {
@@ -49,10 +50,15 @@ export function numericTensions(items: readonly TensionText[]): TensionSetting[]
 }
 
 /**
- * The cell typing of --types and --tension for `cells` areas (numeric tensions), or undefined when
- * neither is given. @throws UsageError for --tension without --types, or bad labels or values.
+ * The cell typing of --types and --tension for `cells` areas (numeric tensions), or the types and
+ * tensions of --example when it has them and neither is given, or undefined.
+ * @throws UsageError for --tension without --types, or bad labels or values.
  */
-export function typingFrom(opts: { types?: string[]; tension?: TensionText[] }, cells: number): CellTyping | undefined {
+export function typingFrom(opts: { types?: string[]; tension?: TensionText[]; example?: string }, cells: number): CellTyping | undefined {
+  const example = opts.example === undefined ? undefined : findExample(opts.example);
+  if (example?.types !== undefined && opts.types === undefined && opts.tension === undefined) {
+    return cellTyping(example.types, example.tensions ?? [], cells);
+  }
   if (opts.types === undefined) {
     if (opts.tension !== undefined) throw new UsageError('Option --tension given without --types when expected --types a,b,... naming each cell\'s type.');
     return undefined;
