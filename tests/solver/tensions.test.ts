@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { UsageError } from '../../src/errors.ts';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { type CubicMap, thetaMap } from '../../src/maps/cubic-map.ts';
-import { certificatePasses } from '../../src/solver/certificate.ts';
+import { certificatePasses, checkEquilibrium } from '../../src/solver/certificate.ts';
 import { relax } from '../../src/solver/newton.ts';
 import type { Equilibrium } from '../../src/solver/result.ts';
 
@@ -116,6 +116,18 @@ describe('relax with wall tensions', () => {
         if (s === 1) expect(r.energy).toBe(r.perimeter);
       }
     }
+  });
+
+  it('checkEquilibrium re-checks the Neumann triangle and Laplace-Young with the tensions it is given', () => {
+    // source: design.md §8 (with tensions the junction and wall laws change; unit-tension laws fail there)
+    const map = standardTriple();
+    const tensions = tensionsBy(map, (f, g) => (f === 0 || g === 0 ? 1 : 1.5));
+    const areas = Float64Array.of(1, 1.5, 2);
+    const r = relax(map, areas, { tensions });
+    expect(certificatePasses(checkEquilibrium(map, areas, r, tensions), 1e-10)).toBe(true);
+    const unit = checkEquilibrium(map, areas, r);
+    expect(unit.tangentResidual).toBeGreaterThan(1e-3);
+    expect(unit.curvatureResidual).toBeGreaterThan(1e-3);
   });
 
   it('tensions (1, 1, sqrt 2) at a junction give angles 90, 135, 135 degrees', () => {
