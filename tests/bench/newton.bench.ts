@@ -16,7 +16,7 @@ const SAMPLE: Record<number, { count: number; stride: number }> = {
   8: { count: 300, stride: 37 },
   10: { count: 150, stride: 401 },
 };
-const REPEATS = 3;
+const REPEATS = 5;
 
 function sample(n: number): CubicMap[] {
   const { count, stride } = SAMPLE[n];
@@ -56,32 +56,33 @@ export function run(): number {
   for (const n of [4, 6, 8, 10]) {
     const maps = sample(n);
     const random = mulberry32(1000 + n);
-    for (const family of ['equal', 'random', 'tension'] as const) {
-      const areas = maps.map(() =>
-        Float64Array.from({ length: n }, () => (family === 'random' ? 1 + 9 * random() : 1)),
-      );
+    const families = (['equal', 'random', 'tension'] as const).map((family) => {
+      const areas = maps.map(() => Float64Array.from({ length: n }, () => (family === 'random' ? 1 + 9 * random() : 1)));
       const options = maps.map((map) => (family === 'tension' ? { tensions: balancedTensions(map, random) } : {}));
       // warm up (the workspaces and the compiled code, not the answers: every call starts cold)
       for (let i = 0; i < maps.length; i++) sink += relax(maps[i], areas[i], options[i]).iterations;
-      const times: number[] = [];
-      const kinds: Record<string, number> = {};
-      let okIterations = 0;
-      let failIterations = 0;
-      let restarts = 0;
-      for (let rep = 0; rep < REPEATS; rep++) {
+      return {
+        family, areas, options, times: [] as number[], kinds: {} as Record<string, number>, okIterations: 0, failIterations: 0, restarts: 0,
+      };
+    });
+    // the families take turns within each repeat, so that a change in the machine's load falls on all of them
+    for (let rep = 0; rep < REPEATS; rep++) {
+      for (const f of families) {
         const t0 = performance.now();
         for (let i = 0; i < maps.length; i++) {
-          const r = relax(maps[i], areas[i], options[i]);
+          const r = relax(maps[i], f.areas[i], f.options[i]);
           sink += r.energy;
           if (rep === 0) {
-            kinds[r.status] = (kinds[r.status] ?? 0) + 1;
-            if (r.status === 'ok') okIterations += r.iterations;
-            else failIterations += r.iterations;
-            restarts += r.restarts;
+            f.kinds[r.status] = (f.kinds[r.status] ?? 0) + 1;
+            if (r.status === 'ok') f.okIterations += r.iterations;
+            else f.failIterations += r.iterations;
+            f.restarts += r.restarts;
           }
         }
-        times.push((performance.now() - t0) / 1000);
+        f.times.push((performance.now() - t0) / 1000);
       }
+    }
+    for (const { family, times, kinds, okIterations, failIterations, restarts } of families) {
       const best = Math.min(...times);
       const ok = kinds.ok ?? 0;
       const failed = maps.length - ok;
