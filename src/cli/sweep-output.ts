@@ -164,6 +164,7 @@ export function pathPlot(s: PathSweep): string {
   const events: PathEvent[] = s.boundaries.map((b) => ({ x: b.at, label: C[b.candidate].id }));
   return renderPathPlot({
     xs: s.xs, series, bands, events, parameter: s.domain.parameter.name, logX: s.domain.log,
+    ...(s.typing === undefined ? {} : { measure: 'energy' }),
     title: `areas ${s.formulas.map((f) => f.source).join(', ')}`,
   });
 }
