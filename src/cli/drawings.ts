@@ -40,7 +40,8 @@ export function entriesSheet(entries: CatalogueEntry[], title: string, typing?: 
     if (plain === null) continue;
     const drawing = typing === undefined ? plain : typedDrawing(plain, e.assignment, typing);
     items.push({
-      drawing, rank: e.rank ?? undefined, id: e.id, perimeter: e.perimeter ?? undefined,
+      drawing, rank: e.rank ?? undefined, id: e.id, perimeter: (typing === undefined ? e.perimeter : e.energy) ?? undefined,
+      ...(typing === undefined ? {} : { energy: true }),
       note: e.index === null ? undefined : `index ${e.index}`, saddle: e.index !== null && e.index > 0,
     });
   }

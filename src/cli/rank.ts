@@ -17,8 +17,7 @@ import { catalogueFileBytes } from './show.ts';
 import { checkSheetTop, entriesSheet, SHEET_LIMIT } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { cliStreams } from './streams.ts';
-import type { CellTyping } from '../solver/tensions.ts';
-import { tensionPairs } from './relax.ts';
+import { type CellTyping, tensionPairs } from '../solver/tensions.ts';
 
 /** A shard of a ranking, 1-based. */
 interface Shard {

@@ -13,7 +13,7 @@ import { renderClusterSvg } from '../render/svg.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
 import { type TensionText, parseTensions, parseTypes, typingFrom } from './tensions.ts';
-import { type CellTyping, isUnitTable, wallTensions } from '../solver/tensions.ts';
+import { type CellTyping, isUnitTable, tensionPairs, wallTensions } from '../solver/tensions.ts';
 import { withRunFiles, writeOut } from './output.ts';
 import { equilibriumDrawing } from './drawings.ts';
 import { familyText, tableNumber } from './table.ts';
@@ -117,17 +117,6 @@ function answerJson(cluster: Cluster, eq: Equilibrium): object {
     collapsingCell: eq.collapsingCell, becomes: t1Neighbour(cluster, eq),
     ...(eq.status === 'junction-unbalanced' ? { unbalancedJunction: eq.unbalancedJunction, junctionTensions: eq.junctionTensions } : {}),
   };
-}
-
-/** The tensions of a typing that are not 1, as "a:b" -> value (each pair once, types in label order). */
-export function tensionPairs(typing: CellTyping): Record<string, number> {
-  const { labels, values } = typing.table;
-  const m = labels.length;
-  const out: Record<string, number> = {};
-  for (let i = 0; i < m; i++) {
-    for (let j = i; j < m; j++) if (values[i * m + j] !== 1) out[`${labels[i]}:${labels[j]}`] = values[i * m + j];
-  }
-  return out;
 }
 
 /**

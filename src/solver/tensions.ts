@@ -112,3 +112,27 @@ export function cellTyping(types: readonly string[], settings: readonly TensionS
   }
   return { table, types: types.map((t) => labels.indexOf(t)) };
 }
+
+/** The tensions of a typing that are not 1, as "a:b" -> value (each pair once, types in label order): how a catalogue's query records them. */
+export function tensionPairs(typing: CellTyping): Record<string, number> {
+  const { labels, values } = typing.table;
+  const m = labels.length;
+  const out: Record<string, number> = {};
+  for (let i = 0; i < m; i++) {
+    for (let j = i; j < m; j++) if (values[i * m + j] !== 1) out[`${labels[i]}:${labels[j]}`] = values[i * m + j];
+  }
+  return out;
+}
+
+/**
+ * The typing a catalogue's query records: types by area and the tensions as tensionPairs writes them.
+ * @throws UsageError as cellTyping does, or for a key that is not "type:type".
+ */
+export function typingOfPairs(types: readonly string[], pairs: Readonly<Record<string, number>>, cells: number): CellTyping {
+  const settings = Object.entries(pairs).map(([key, value]) => {
+    const [a, b, extra] = key.split(':');
+    if (b === undefined || extra !== undefined) throw new UsageError(`Tension key "${key}" is not valid when expected type:type.`);
+    return { a, b, value };
+  });
+  return cellTyping(types, settings, cells);
+}
