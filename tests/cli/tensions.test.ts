@@ -2,6 +2,10 @@
 import { describe, expect, it } from 'vitest';
 import { clusterFromCode } from '../../src/maps/cluster.ts';
 import { relax } from '../../src/solver/newton.ts';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { CELL_FILLS } from '../../src/render/palette.ts';
 import { lather } from './helpers.ts';
 
 describe('--types and --tension', () => {
@@ -74,5 +78,28 @@ describe('--types and --tension', () => {
     const change = doc.transitions.find((x: { from: number; to: number }) => idOf(x.to) === '3.3');
     expect(change.at).toBeGreaterThan(0.5);
     expect(change.at).toBeLessThan(1);
+  });
+
+  it('lather rank --areas 1,1,2,2 --types a,a,b,b --tension a:b=1.3 --sheet s.svg ranks by energy and draws the types', async () => {
+    // source: the energy order of the table is that of the catalogue written beside it (rank.ts); the
+    // palette's rule for typed cells (type 1 the first fill, type 2 the second)
+    const dir = mkdtempSync(join(tmpdir(), 'lather-'));
+    const sheet = join(dir, 's.svg');
+    const out = join(dir, 'c.json');
+    const run = await lather(['rank', '--areas', '1,1,2,2', '--types', 'a,a,b,b', '--tension', 'a:b=1.3', '--sheet', sheet, '--out', out, '--top', '4']);
+    expect(run.status).toBe(0);
+    expect(run.stdout).toContain('types a a b b by area; tensions a:b 1.3 (others 1); ranked by energy');
+    expect(run.stdout).toMatch(/^rank +energy +length +gap %/m);
+    const doc = JSON.parse(readFileSync(out, 'utf8'));
+    const energies = doc.entries.filter((e: { rank: number | null }) => e.rank !== null).map((e: { energy: number }) => e.energy);
+    expect(energies).toEqual([...energies].sort((x: number, y: number) => x - y));
+    const svg = readFileSync(sheet, 'utf8');
+    const fills = new Set([...svg.matchAll(/<path class="cell" data-cell="\d+" fill="(#[0-9a-f]{6})"/g)].map((m) => m[1]));
+    expect(fills).toEqual(new Set([CELL_FILLS[0], CELL_FILLS[1]]));
+    expect(svg).toContain('E = ');
+    // the built-in typed example of the demo scenario
+    const demo = await lather(['rank', '--example', 'tray-dyed', '--top', '3']);
+    expect(demo.status).toBe(0);
+    expect(demo.stdout).toContain('types plain plain dyed dyed by area; tensions plain:dyed 1.3');
   });
 });
