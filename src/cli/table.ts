@@ -22,7 +22,7 @@ export function tableValue(x: number): string {
 
 /** Which area sits in which cell, e.g. "1:2.5 2:1 3:1". */
 export function cellAreasText(e: CatalogueEntry, types?: readonly string[]): string {
-  return e.cellAreas.map((a, i) => `${i + 1}:${a}${types === undefined ? '' : types[e.assignment[i]]}`).join(' ');
+  return e.cellAreas.map((a, i) => `${i + 1}:${a}${types === undefined ? '' : `(${types[e.assignment[i]]})`}`).join(' ');
 }
 
 function stabilityText(e: CatalogueEntry): string {

@@ -108,10 +108,10 @@ export function candidateAreasInto(candidate: SweepCandidate, slotValues: ArrayL
   return out;
 }
 
-/** Readable "which formula sits in which cell", e.g. "1:1 2:1 3:1 4:t" (typed: "1:1a 2:1a 3:2b 4:2b"). */
+/** Readable "which formula sits in which cell", e.g. "1:1 2:1 3:1 4:t" (typed: "1:1(a) 2:1(a) 3:2(b) 4:2(b)"). */
 export function cellFormulasText(candidate: SweepCandidate): string {
   const types = candidate.cellTypes;
-  return candidate.cellFormulas.map((f, i) => `${i + 1}:${f.replace(/\s+/g, '')}${types === undefined ? '' : types[i]}`).join(' ');
+  return candidate.cellFormulas.map((f, i) => `${i + 1}:${f.replace(/\s+/g, '')}${types === undefined ? '' : `(${types[i]})`}`).join(' ');
 }
 
 /**
