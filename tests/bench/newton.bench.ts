@@ -1,6 +1,7 @@
 // Benchmark: relax() answers per second from a cold start (a first drawing, no previous answer) for
 // n = 4, 6, 8, 10, equal and random areas, and equal areas with random wall tensions in [0.6, 1.6]
-// (drawn again until every junction can balance them, so that each answer is a relaxation); certified equilibria and named failures counted apart, with
+// (drawn again until every junction can balance them, so that each answer is a relaxation), and equal
+// areas with every tension 1.3 (the shapes of unit tension through the weighted kernel); certified equilibria and named failures counted apart, with
 // their mean Newton iterations, the answers that began again from a second drawing, peak memory; then
 // the census of every arrangement with n <= 7 at equal areas. Run: npx tsx tests/bench/newton.bench.ts
 import { enumerateClusters } from '../../src/maps/cluster.ts';
@@ -56,9 +57,12 @@ export function run(): number {
   for (const n of [4, 6, 8, 10]) {
     const maps = sample(n);
     const random = mulberry32(1000 + n);
-    const families = (['equal', 'random', 'tension'] as const).map((family) => {
+    const families = (['equal', 'random', 'tension', 'scaled'] as const).map((family) => {
       const areas = maps.map(() => Float64Array.from({ length: n }, () => (family === 'random' ? 1 + 9 * random() : 1)));
-      const options = maps.map((map) => (family === 'tension' ? { tensions: balancedTensions(map, random) } : {}));
+      // 'scaled': every wall 1.3, the same shapes as 'equal' through the weighted kernel (its cost alone)
+      const options = maps.map((map) =>
+        family === 'tension' ? { tensions: balancedTensions(map, random) }
+          : family === 'scaled' ? { tensions: new Float64Array(map.twins.length / 2).fill(1.3) } : {});
       // warm up (the workspaces and the compiled code, not the answers: every call starts cold)
       for (let i = 0; i < maps.length; i++) sink += relax(maps[i], areas[i], options[i]).iterations;
       return {
