@@ -1,20 +1,12 @@
 // cli stage: contact sheets of catalogue entries and their size limit (the drawings themselves: render/entry.ts).
 
 import type { CatalogueEntry } from '../catalogue/types.ts';
-import { entryDrawing } from '../render/entry.ts';
+import { entryDrawing, typedDrawing } from '../render/entry.ts';
 import { renderContactSheet, type SheetItem } from '../render/sheet.ts';
 import { UsageError } from '../errors.ts';
-import { type CellTyping, wallTensions } from '../solver/tensions.ts';
-import type { ClusterDrawing } from '../render/types.ts';
+import type { CellTyping } from '../solver/tensions.ts';
 
-export { entryDrawing, equilibriumDrawing } from '../render/entry.ts';
-
-/** A drawing with the types of its cells (cell i + 1 holds the query's area assignment[i]) and its walls' tensions. */
-export function typedDrawing(drawing: ClusterDrawing, assignment: readonly number[], typing: CellTyping): ClusterDrawing {
-  const cellTypes = assignment.map((i) => typing.types[i]);
-  const tensions = wallTensions(drawing.map, cellTypes, typing.table);
-  return { ...drawing, cellTypes, typeLabels: typing.table.labels, ...(tensions === null ? {} : { tensions }) };
-}
+export { entryDrawing, equilibriumDrawing, typedDrawing } from '../render/entry.ts';
 
 /** Most drawings on the contact sheet of `rank --sheet` and `merge --sheet` (the top ranks, fewer with a smaller --top). */
 export const SHEET_LIMIT = 12;

@@ -6,6 +6,7 @@ import type { Cluster } from '../maps/cluster.ts';
 import type { CatalogueEntry } from '../catalogue/types.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import type { ClusterDrawing } from './types.ts';
+import { type CellTyping, wallTensions } from '../solver/tensions.ts';
 
 /** The drawing of a certified catalogue entry (null for a failure, which has no geometry). */
 export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
@@ -43,4 +44,11 @@ export function equilibriumDrawing(
     ...(typed === undefined ? {} : { cellTypes: typed.cellTypes, typeLabels: typed.typeLabels }),
     ...(typed?.tensions ? { tensions: typed.tensions } : {}),
   };
+}
+
+/** A drawing with the types of its cells (cell i + 1 holds the query's area assignment[i]) and its walls' tensions. */
+export function typedDrawing(drawing: ClusterDrawing, assignment: readonly number[], typing: CellTyping): ClusterDrawing {
+  const cellTypes = assignment.map((i) => typing.types[i]);
+  const tensions = wallTensions(drawing.map, cellTypes, typing.table);
+  return { ...drawing, cellTypes, typeLabels: typing.table.labels, ...(tensions === null ? {} : { tensions }) };
 }
