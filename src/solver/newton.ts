@@ -312,13 +312,14 @@ const PERTURB_TRIES = 4;
 /**
  * Write the first drawing `start` into the workspace of `map`'s problem, targets normalised (as relax
  * does); returns the problem, the workspace and the unit of length, or null when that drawing cannot be
- * made (the construction path fails, or every perturbation leaves an invalid drawing).
+ * made (the construction path fails, or every perturbation leaves an invalid drawing). With wall
+ * `tensions` (options.tensions, checked) the problem weighs its walls by them.
  * Assumes checked input and at least one junction.
  */
 export function drawingState(
-  map: CubicMap, areas: Float64Array, start: DrawingStart,
+  map: CubicMap, areas: Float64Array, start: DrawingStart, tensions: Float64Array | null = null,
 ): { problem: ClusterProblem; ws: Workspace; unit: number } | null {
-  const problem = problemOf(map);
+  const problem = withTensions(problemOf(map), tensions);
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   if (typeof start.drawing === 'object') {
@@ -376,9 +377,11 @@ const BULGE_EDGE = Math.PI - 0.1;
  */
 export function relaxFromDrawing(map: CubicMap, areas: Float64Array, start: DrawingStart, options?: NewtonOptions): Equilibrium | null {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
+  checkInput(map, areas, opt);
   if (map.junctionCount === 0) return circleAnswer(map, areas);
-  const state = drawingState(map, areas, start);
+  // (a junction whose tensions cannot balance is relax()'s verdict: no other drawing changes it)
+  if (unbalancedJunctionOf(withTensions(problemOf(map), opt.tensions)) >= 0) return null;
+  const state = drawingState(map, areas, start, opt.tensions);
   if (state === null) return null;
   const { problem, ws, unit } = state;
   return answerOf(map, problem, ws, areas, unit, opt, settle(map, problem, ws, opt, false), 0);
@@ -393,8 +396,8 @@ export function relaxFromDrawing(map: CubicMap, areas: Float64Array, start: Draw
  */
 export function answerAtState(map: CubicMap, areas: Float64Array, z: Float64Array, iterations: number, options?: NewtonOptions): Equilibrium {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
-  const problem = problemOf(map);
+  checkInput(map, areas, opt);
+  const problem = withTensions(problemOf(map), opt.tensions);
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   ws.z.set(z);

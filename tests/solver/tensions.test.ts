@@ -4,6 +4,7 @@ import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { type CubicMap, thetaMap } from '../../src/maps/cubic-map.ts';
 import { certificatePasses, checkEquilibrium } from '../../src/solver/certificate.ts';
 import { relax } from '../../src/solver/newton.ts';
+import { findEquilibria } from '../../src/solver/equilibria.ts';
 import type { Equilibrium } from '../../src/solver/result.ts';
 
 // The wall of each dart and the wall between the two cells of the theta graph.
@@ -204,5 +205,21 @@ describe('relax with wall tensions', () => {
     expect(() => relax(map, Float64Array.of(1, 1), { tensions: Float64Array.of(1, 1) })).toThrow(UsageError);
     expect(() => relax(map, Float64Array.of(1, 1), { tensions: Float64Array.of(1, 0, 1) })).toThrow(UsageError);
     expect(() => relax(map, Float64Array.of(1, 1), { tensions: Float64Array.of(1, Number.NaN, 1) })).toThrow(UsageError);
+  });
+
+  it('findEquilibria with tensions: every start and every saddle found is an equilibrium of the weighted walls', () => {
+    // source: the certificate's Neumann triangle and Laplace-Young law with tension (design.md §8)
+    const map = [...enumerateClusters(4)].map((c) => c.map).find((m) => [1, 2, 3, 4].every((f) => m.faceSize(f) >= 3)) as CubicMap;
+    const tensions = tensionsBy(map, (f, g) => (f === 0 || g === 0 ? 1 : 0.8 + 0.1 * (f + g)));
+    const areas = Float64Array.of(1, 1.5, 2, 2.5);
+    const search = findEquilibria(map, areas, { tensions, starts: 3, unstable: true });
+    expect(search.tried).toBe(3);
+    for (const { equilibrium } of search.found) {
+      expect(certificatePasses(checkEquilibrium(map, areas, equilibrium, tensions), 1e-10)).toBe(true);
+    }
+    const unbalanced = tensionsBy(map, (f, g) => (f === 0 || g === 0 ? 1 : 3));
+    const none = findEquilibria(map, areas, { tensions: unbalanced, starts: 3, unstable: true });
+    expect(none.found).toHaveLength(0);
+    expect(none.failure?.status).toBe('junction-unbalanced');
   });
 });
