@@ -144,7 +144,6 @@ export function addRankCommand(program: Command): void {
       const workers = workersFrom(opts);
       checkSheetTop(opts.top, command.getOptionValueSource('top') === 'cli', opts.sheet);
       if (opts.shard !== undefined) {
-        if (typing !== undefined) throw new UsageError('Option --shard given with cell types when expected it only for untyped areas (part files do not record types yet).');
         for (const option of ['top', 'stableOnly'] as const) {
           if (command.getOptionValueSource(option) === 'cli') {
             const name = option === 'top' ? '--top' : '--stable-only';
@@ -152,7 +151,7 @@ export function addRankCommand(program: Command): void {
           }
         }
         await rankPart(areas, opts.shard === 'slurm' ? slurmShard(process.env) : opts.shard, {
-          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable),
+          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable), typing,
         }, opts);
         return;
       }

@@ -102,4 +102,17 @@ describe('--types and --tension', () => {
     expect(demo.status).toBe(0);
     expect(demo.stdout).toContain('types plain plain dyed dyed by area; tensions plain:dyed 1.3');
   });
+
+  it('lather rank --types --tension --shard i/2, then merge: the single typed run byte for byte', async () => {
+    // source: the sharding contract (design.md §9: the parts merge into what a single run gives)
+    const dir = mkdtempSync(join(tmpdir(), 'lather-'));
+    const query = ['--areas', '1,1,2,2', '--types', 'a,a,b,b', '--tension', 'a:b=1.3,b:out=0.9'];
+    const single = join(dir, 'single.json');
+    expect((await lather(['rank', ...query, '--out', single])).status).toBe(0);
+    const parts = [1, 2].map((i) => join(dir, `part-${i}.json`));
+    for (const [i, part] of parts.entries()) expect((await lather(['rank', ...query, '--shard', `${i + 1}/2`, '--out', part])).status).toBe(0);
+    const merged = join(dir, 'merged.json');
+    expect((await lather(['merge', ...parts, '--out', merged])).status).toBe(0);
+    expect(readFileSync(merged, 'utf8')).toBe(readFileSync(single, 'utf8'));
+  });
 });
