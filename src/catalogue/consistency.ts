@@ -492,7 +492,7 @@ const FACTORS = new Float64Array(BULGE_FACTORS);
  */
 function drawnPerimeter(cluster: Cluster, areas: Float64Array, coords: Float64Array, bulges: Float64Array, tensions: Float64Array | null = null): number {
   const { twins } = cluster.map;
-  if (twins.length === 0) return 2 * Math.sqrt(Math.PI * areas[0]);
+  if (twins.length === 0) return (tensions === null ? 1 : tensions[0]) * (2 * Math.sqrt(Math.PI * areas[0]));
   let sum = 0;
   for (let e = 0, k = 0; e < twins.length; e++) {
     if (e > twins[e]) continue;

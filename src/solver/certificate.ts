@@ -102,10 +102,11 @@ export function checkEquilibrium(
   if (twins.length === 0) {
     const p = pressures[0];
     const radius = Math.sqrt(areas[0] / Math.PI);
+    const s = tensions === null ? 1 : tensions[0];
     return finite({
       areaResidual: 0,
       tangentResidual: 0,
-      curvatureResidual: Math.abs(1 / radius - p) / (Math.abs(p) + 1 / unit),
+      curvatureResidual: Math.abs(s / radius - p) / (Math.abs(p) + s / unit),
       minWallLength: 2 * Math.PI * radius,
       minCellArea: areas[0],
       crossings: 0,

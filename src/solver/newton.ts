@@ -177,14 +177,16 @@ function shrinkSmallCells(problem: ClusterProblem, ws: Workspace): void {
 }
 
 // The answer for the circle (one cell): perimeter 2 sqrt(pi A), pressure 1/R (isoperimetric inequality).
-function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
+// With a tension s on its one wall (tensions of length 1): energy s 2 pi R, pressure s/R (Laplace-Young).
+function circleAnswer(map: CubicMap, areas: Float64Array, tensions: Float64Array | null): Equilibrium {
   const area = areas[0];
   const radius = Math.sqrt(area / Math.PI);
+  const s = tensions === null ? 1 : tensions[0];
   const result: Equilibrium = {
     status: 'ok',
     perimeter: 2 * Math.PI * radius,
-    energy: 2 * Math.PI * radius,
-    pressures: Float64Array.of(1 / radius),
+    energy: s * (2 * Math.PI * radius),
+    pressures: Float64Array.of(s / radius),
     coords: new Float64Array(0),
     bulges: new Float64Array(0),
     curvatures: new Float64Array(0),
@@ -199,7 +201,7 @@ function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
     unbalancedJunction: null,
     junctionTensions: null,
   };
-  result.certificate = checkEquilibrium(map, areas, result);
+  result.certificate = checkEquilibrium(map, areas, result, tensions);
   return result;
 }
 
@@ -209,7 +211,8 @@ function checkInput(map: CubicMap, areas: Float64Array, opt: ResolvedNewtonOptio
   if (areas.length !== cells) {
     throw new UsageError(`Got ${areas.length} areas when expected ${cells}, one per cell.`);
   }
-  const walls = map.twins.length / 2;
+  // (the circle has one wall, though its map has no darts)
+  const walls = map.junctionCount === 0 ? 1 : map.twins.length / 2;
   if (opt.tensions !== null && opt.tensions.length !== walls) {
     throw new UsageError(`Got ${opt.tensions.length} tensions when expected ${walls}, one per wall.`);
   }
@@ -239,7 +242,7 @@ function normaliseTargets(problem: ClusterProblem, ws: Workspace, areas: Float64
 export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOptions): Equilibrium {
   const opt = resolveOptions(options);
   checkInput(map, areas, opt);
-  if (map.junctionCount === 0) return circleAnswer(map, areas);
+  if (map.junctionCount === 0) return circleAnswer(map, areas, opt.tensions);
   const problem = withTensions(problemOf(map), opt.tensions);
   const { cells } = problem;
   const ws = workspaceFor(problem);
@@ -378,7 +381,7 @@ const BULGE_EDGE = Math.PI - 0.1;
 export function relaxFromDrawing(map: CubicMap, areas: Float64Array, start: DrawingStart, options?: NewtonOptions): Equilibrium | null {
   const opt = resolveOptions(options);
   checkInput(map, areas, opt);
-  if (map.junctionCount === 0) return circleAnswer(map, areas);
+  if (map.junctionCount === 0) return circleAnswer(map, areas, opt.tensions);
   // (a junction whose tensions cannot balance is relax()'s verdict: no other drawing changes it)
   if (unbalancedJunctionOf(withTensions(problemOf(map), opt.tensions)) >= 0) return null;
   const state = drawingState(map, areas, start, opt.tensions);
@@ -476,7 +479,7 @@ export function relaxFrom(
 ): Equilibrium {
   const opt = resolveOptions(options);
   checkInput(map, areas, opt);
-  if (map.junctionCount === 0) return circleAnswer(map, areas);
+  if (map.junctionCount === 0) return circleAnswer(map, areas, opt.tensions);
   const problem = withTensions(problemOf(map), opt.tensions);
   if (unbalancedJunctionOf(problem) >= 0) return relax(map, areas, options);
   const { junctions, walls, cells } = problem;

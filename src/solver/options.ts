@@ -48,7 +48,7 @@ export interface NewtonOptions {
   /**
    * Tension of each wall, by map.wallIndex() (walls of different tension, design.md §8): the energy
    * minimised is the sum of tension times length, and the pressures are its multipliers. Unset (or all
-   * 1) is the soap film, energy = perimeter. A cluster of one cell has no walls to weigh.
+   * 1) is the soap film, energy = perimeter. A cluster of one cell has one wall, its circle.
    * @default every wall 1
    */
   tensions?: Float64Array | null;

@@ -35,13 +35,15 @@ export function isUnitTable(table: TensionTable | null | undefined): boolean {
 }
 
 /**
- * The tension of each wall of `map` (by map.wallIndex()) when cell f has type cellTypes[f - 1] (an index
- * into table.labels, never 0) and the outside type 0; null when every wall's tension is 1.
+ * The tension of each wall of `map` (by map.wallIndex(); the circle's one wall for a single cell) when
+ * cell f has type cellTypes[f - 1] (an index into table.labels, never 0) and the outside type 0; null
+ * when every wall's tension is 1.
  */
 export function wallTensions(map: CubicMap, cellTypes: ArrayLike<number>, table: TensionTable | null | undefined): Float64Array | null {
   if (isUnitTable(table)) return null;
   const t = table as TensionTable;
-  const out = wallPairValues(map, cellTypes, t.values, t.labels.length);
+  // (the circle: one wall, between its cell and the outside, though its map has no darts)
+  const out = map.twins.length === 0 ? Float64Array.of(tensionBetween(t, cellTypes[0], 0)) : wallPairValues(map, cellTypes, t.values, t.labels.length);
   return out.every((s) => s === 1) ? null : out;
 }
 

@@ -115,4 +115,12 @@ describe('--types and --tension', () => {
     expect((await lather(['merge', ...parts, '--out', merged])).status).toBe(0);
     expect(readFileSync(merged, 'utf8')).toBe(readFileSync(single, 'utf8'));
   });
+
+  it('lather rank of one typed cell: its circle has the tension of its type against the outside', async () => {
+    // source: classical isoperimetric inequality; energy = tension x length (design.md §8)
+    const run = await lather(['rank', '--areas', '2', '--types', 'a', '--tension', 'a:out=1.5']);
+    expect(run.status).toBe(0);
+    const energy = 1.5 * 2 * Math.sqrt(2 * Math.PI);
+    expect(run.stdout).toContain(energy.toPrecision(10).slice(0, 9));
+  });
 });

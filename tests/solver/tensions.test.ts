@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { UsageError } from '../../src/errors.ts';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
-import { type CubicMap, thetaMap } from '../../src/maps/cubic-map.ts';
+import { type CubicMap, circleMap, thetaMap } from '../../src/maps/cubic-map.ts';
 import { certificatePasses, checkEquilibrium } from '../../src/solver/certificate.ts';
 import { relax } from '../../src/solver/newton.ts';
 import { findEquilibria } from '../../src/solver/equilibria.ts';
@@ -221,5 +221,15 @@ describe('relax with wall tensions', () => {
     const none = findEquilibria(map, areas, { tensions: unbalanced, starts: 3, unstable: true });
     expect(none.found).toHaveLength(0);
     expect(none.failure?.status).toBe('junction-unbalanced');
+  });
+
+  it('relax(circleMap(), [A], {tensions: [s]}): the one wall of tension s, energy s 2 sqrt(pi A), pressure s / R', () => {
+    // source: classical isoperimetric inequality (the shape) and Laplace-Young with tension (design.md §8)
+    const r = relax(circleMap(), Float64Array.of(3), { tensions: Float64Array.of(1.7) });
+    expect(r.status).toBe('ok');
+    expect(r.energy).toBeCloseTo(1.7 * 2 * Math.sqrt(Math.PI * 3), 12);
+    expect(r.perimeter).toBeCloseTo(2 * Math.sqrt(Math.PI * 3), 12);
+    expect(r.pressures[0]).toBeCloseTo(1.7 / Math.sqrt(3 / Math.PI), 12);
+    expect(certificatePasses(r.certificate, 1e-12)).toBe(true);
   });
 });
