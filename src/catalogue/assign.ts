@@ -3,24 +3,45 @@
 // Areas are grouped into classes of equal value (class 0 = largest area). An assignment is a sequence
 // of class ids, one per cell; a symmetry g of the cluster sends sequence s to s' with s'[g(i)] = s[i].
 // The representative of an orbit is its lexicographically smallest sequence, so equal areas collapse
-// to one candidate and all-distinct areas give n!/|symmetry action on the cells| of them.
+// to one candidate and all-distinct areas give n!/|symmetry action on the cells| of them. With cell
+// types (walls of different tension) a class is an area and a type: cells of one type with equal areas
+// are one class, equal areas of two types are two.
 
-/** The user's areas grouped into classes of equal value. */
+/** The user's areas grouped into classes of equal value (and equal type, when typed). */
 export interface AreaClasses {
-  /** Distinct values, largest first. */
+  /** The value of each class, largest first (then by type). */
   values: number[];
+  /** The type of each class (an index into a TensionTable's labels), when the cells are typed. */
+  types?: number[];
   /** How many areas fall in each class. */
   multiplicity: number[];
   /** Class id of each of the user's areas, in the user's order. */
   classOf: number[];
 }
 
-/** Group areas into classes of exactly equal value, largest first. */
-export function areaClasses(areas: readonly number[]): AreaClasses {
-  const values = [...new Set(areas)].sort((a, b) => b - a);
-  const classOf = areas.map((a) => values.indexOf(a));
-  const multiplicity = values.map((_, k) => classOf.filter((c) => c === k).length);
-  return { values, multiplicity, classOf };
+/**
+ * Group areas into classes of exactly equal value, largest first; with `types` (one type index per
+ * area) of equal value and equal type, by value then type.
+ */
+export function areaClasses(areas: readonly number[], types?: readonly number[]): AreaClasses {
+  if (types === undefined) {
+    const values = [...new Set(areas)].sort((a, b) => b - a);
+    const classOf = areas.map((a) => values.indexOf(a));
+    const multiplicity = values.map((_, k) => classOf.filter((c) => c === k).length);
+    return { values, multiplicity, classOf };
+  }
+  const keys = [...new Map(areas.map((a, i) => [`${a}|${types[i]}`, [a, types[i]] as const])).values()]
+    .sort((x, y) => y[0] - x[0] || x[1] - y[1]);
+  const classOf = areas.map((a, i) => keys.findIndex(([v, t]) => v === a && t === types[i]));
+  const multiplicity = keys.map((_, k) => classOf.filter((c) => c === k).length);
+  return { values: keys.map(([v]) => v), types: keys.map(([, t]) => t), multiplicity, classOf };
+}
+
+/** The type of each cell of a class sequence (all 1 when the classes are untyped). */
+export function typesOf(s: ArrayLike<number>, classes: AreaClasses): Int32Array {
+  const out = new Int32Array(s.length).fill(1);
+  if (classes.types !== undefined) for (let i = 0; i < s.length; i++) out[i] = classes.types[s[i]];
+  return out;
 }
 
 /** n! / prod(m_k!): the number of labelled assignments of the classes to n cells. */

@@ -12,10 +12,11 @@ import { rootedMapCount } from '../maps/count.ts';
 import { summarizeCluster } from '../maps/describe.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from '../solver/certificate.ts';
 import { resolveOptions } from '../solver/options.ts';
-import { CatalogueFormatError, MapError } from '../errors.ts';
+import { type CellTyping, typingOfPairs, wallTensions } from '../solver/tensions.ts';
+import { CatalogueFormatError, MapError, UsageError } from '../errors.ts';
 import { type AreaClasses, areaClasses, labelledAssignmentCount, orbitCount, orbitRepresentative, userIndices } from './assign.ts';
 import { isFiltering, passesFilter } from './filter.ts';
-import { ORDER_DIGITS } from './rank.ts';
+import { ORDER_DIGITS, rankedValue } from './rank.ts';
 import { type Catalogue, type CatalogueEntry, WRITE_DIGITS, roundWritten } from './types.ts';
 
 /**
@@ -109,7 +110,17 @@ function refuse(found: string, expected: string): never {
 export function checkCatalogueConsistency(catalogue: Catalogue, source: string): void {
   const { query, counts, entries } = catalogue;
   const n = query.areas.length;
-  const classes = areaClasses(query.areas);
+  // cells of different types: the classes are of equal area and type, the ranking by energy
+  let typing: CellTyping | undefined;
+  try {
+    if (query.tensions !== undefined && query.types === undefined) refuse('query has tensions but no types', 'types with tensions');
+    typing = query.types === undefined ? undefined : typingOfPairs(query.types, query.tensions ?? {}, n);
+  } catch (error) {
+    if (error instanceof UsageError) fail(source, 'query', error.message);
+    if (error instanceof Inconsistency) fail(source, 'query', error.message);
+    throw error;
+  }
+  const classes = areaClasses(query.areas, typing?.types);
   const oneClass = labelledAssignmentCount(classes) === 1;
   const filtering = isFiltering(query.filter);
   const scratch = { used: new Uint8Array(n), classes: new Int32Array(n) };
@@ -141,7 +152,7 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
         };
         arrangements.set(entry.code, known);
       }
-      checkEntry(entry, k, known, catalogue, classes, idOf, codeOf, scratch);
+      checkEntry(entry, k, known, catalogue, classes, idOf, codeOf, scratch, typing);
       if (entry.status === 'ok') {
         equilibria++;
         if (entry.index === 0) stable++;
@@ -154,11 +165,13 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
         // orders perimeters rounded to ORDER_DIGITS (ties by code), so one may be below the one before
         // by a unit in that digit, plus the rounding of both to WRITE_DIGITS
         if (entry.rank !== k + 1) refuse(`rank is ${entry.rank}`, `${k + 1} (certified entries come first, ranked in file order)`);
-        const p = entry.perimeter!;
+        // (the energy in a typed catalogue)
+        const p = rankedValue(entry)!;
         // a saddle below the least stable perimeter (rank 1) is placed at it (rank.ts rankingPerimeter)
         const placed = best !== null && entry.index !== 0 && entries[0].index === 0 ? Math.max(p, best) : p;
         if (previous !== null && placed < previous * (1 - 10 ** (1 - ORDER_DIGITS) - 2 * WRITE_ROUNDING)) {
-          refuse(`perimeter is ${p}, below rank ${k}'s ${previous}`, 'ranks ordered by perimeter');
+          const what = typing === undefined ? 'perimeter' : 'energy';
+          refuse(`${what} is ${p}, below rank ${k}'s ${previous}`, `ranks ordered by ${what}`);
         }
         best ??= p;
         previous = placed;
@@ -277,9 +290,12 @@ const same = (a: readonly number[], b: readonly number[]): boolean => a.length =
 function checkEntry(
   entry: CatalogueEntry, k: number, known: Arrangement, catalogue: Catalogue, classes: AreaClasses,
   idOf: Map<string, string>, codeOf: Map<string, string>,
-  scratch: { used: Uint8Array; classes: Int32Array },
+  scratch: { used: Uint8Array; classes: Int32Array }, typing: CellTyping | undefined,
 ): void {
   const { query } = catalogue;
+  // a typed catalogue gives every entry its energy (null for a failure), an untyped one none
+  if (typing === undefined && entry.energy !== undefined) refuse('energy is given', 'no energy in a catalogue without types (the perimeter is ranked)');
+  if (typing !== undefined && entry.energy === undefined) refuse('energy is missing', 'an energy (or null for a failure) in a catalogue with types');
   const n = query.areas.length;
   const { cluster, sides, passes, group, candidates } = known;
   if (!same(entry.sides, sides)) refuse(`sides are [${entry.sides}]`, `[${sides}] (the side counts of cells 1..${n} of its code)`);
@@ -325,13 +341,14 @@ function checkEntry(
     refuse(`collapsingWall is ${entry.collapsingWall}`, `a wall from 0 to ${Math.max(walls, 1) - 1}`);
   }
   if (entry.collapsingCell !== null && !(entry.collapsingCell <= n)) refuse(`collapsingCell is ${entry.collapsingCell}`, `a cell from 1 to ${n}`);
-  const answers = ['perimeter', 'gapPercent', 'index', 'zeroModes', 'pressures', 'geometry'] as const;
+  const answers: readonly (keyof CatalogueEntry)[] = ['perimeter', 'gapPercent', 'index', 'zeroModes', 'pressures', 'geometry', ...(typing === undefined ? [] : ['energy' as const])];
   if (entry.status !== 'ok') {
     for (const field of answers) if (entry[field] !== null) refuse(`${field} is given for a failure`, 'null (a failure has no answer)');
     return;
   }
   for (const field of answers) if (entry[field] === null) refuse(`${field} is null`, 'a value for a certified ("ok") entry');
-  checkAnswer(entry, cluster, Float64Array.from(assignment, (i) => query.areas[i]));
+  const tensions = typing === undefined ? null : wallTensions(cluster.map, assignment.map((i) => typing.types[i]), typing.table);
+  checkAnswer(entry, cluster, Float64Array.from(assignment, (i) => query.areas[i]), tensions);
 }
 
 /** The pressure scale of a query's areas: 1/sqrt(mean area). */
@@ -401,7 +418,7 @@ function checkCandidate(
  * An 'ok' entry: finite numbers of the right lengths, a perimeter and a certificate its geometry bears
  * out at the query's own areas (areas[i] for cell i + 1).
  */
-function checkAnswer(entry: CatalogueEntry, cluster: Cluster, areas: Float64Array): void {
+function checkAnswer(entry: CatalogueEntry, cluster: Cluster, areas: Float64Array, tensions: Float64Array | null): void {
   const { map } = cluster;
   const n = areas.length;
   const { coords, bulges } = entry.geometry!;
@@ -440,10 +457,16 @@ function checkAnswer(entry: CatalogueEntry, cluster: Cluster, areas: Float64Arra
   if (!(Math.abs(perimeter - length) <= (tolerance + slack.perimeter) * length)) {
     refuse(`perimeter is ${perimeter}`, `${length.toPrecision(12)}, the length of its walls`);
   }
+  if (entry.energy !== undefined) {
+    const energy = drawnPerimeter(cluster, areas, geometry.coords, geometry.bulges, tensions);
+    if (!(Math.abs((entry.energy as number) - energy) <= (tolerance + slack.perimeter) * energy)) {
+      refuse(`energy is ${entry.energy}`, `${energy.toPrecision(12)}, the sum of tension times length of its walls`);
+    }
+  }
   if (!certificatePasses(entry.certificate, tolerance)) {
     refuse(`certificate ${JSON.stringify(entry.certificate)} does not pass`, `residuals at most ${tolerance}, positive walls and cells, no crossing`);
   }
-  const c = checkEquilibrium(map, areas, geometry);
+  const c = checkEquilibrium(map, areas, geometry, tensions);
   const limits: [keyof Certificate, number][] = [
     ['areaResidual', tolerance + slack.area],
     ['tangentResidual', tolerance + slack.tangent],
@@ -463,16 +486,20 @@ function checkAnswer(entry: CatalogueEntry, cluster: Cluster, areas: Float64Arra
 
 const FACTORS = new Float64Array(BULGE_FACTORS);
 
-/** The perimeter of a drawing: the sum of its arc lengths (the circle: 2 sqrt(pi A)). */
-function drawnPerimeter(cluster: Cluster, areas: Float64Array, coords: Float64Array, bulges: Float64Array): number {
+/**
+ * The perimeter of a drawing: the sum of its arc lengths (the circle: 2 sqrt(pi A)); with wall
+ * `tensions`, the sum of tension times length (the energy).
+ */
+function drawnPerimeter(cluster: Cluster, areas: Float64Array, coords: Float64Array, bulges: Float64Array, tensions: Float64Array | null = null): number {
   const { twins } = cluster.map;
-  if (twins.length === 0) return 2 * Math.sqrt(Math.PI * areas[0]);
+  if (twins.length === 0) return (tensions === null ? 1 : tensions[0]) * (2 * Math.sqrt(Math.PI * areas[0]));
   let sum = 0;
   for (let e = 0, k = 0; e < twins.length; e++) {
     if (e > twins[e]) continue;
     const a = (e / 3) | 0;
     const b = (twins[e] / 3) | 0;
-    sum += arcLength(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k++]);
+    const s = tensions === null ? 1 : tensions[k];
+    sum += s * arcLength(coords[2 * a], coords[2 * a + 1], coords[2 * b], coords[2 * b + 1], bulges[k++]);
   }
   return sum;
 }

@@ -9,8 +9,9 @@ import { clusterFromCode, cellPermutations } from '../maps/cluster.ts';
 import { wallSwapCode } from '../maps/t1.ts';
 import { type EquilibriumSearch, findEquilibria } from '../solver/equilibria.ts';
 import type { NewtonOptions } from '../solver/options.ts';
+import { type TensionTable, wallTensions } from '../solver/tensions.ts';
 import type { Equilibrium } from '../solver/result.ts';
-import { type AreaClasses, areasOf, orbitAssignments, orbitRepresentative } from './assign.ts';
+import { type AreaClasses, areasOf, orbitAssignments, orbitRepresentative, typesOf } from './assign.ts';
 import { mulberry32 } from '../random.ts';
 
 /** One cluster's share of a ranking. */
@@ -40,6 +41,11 @@ export interface ClusterTask {
    * @default the search's defaults
    */
   search?: { starts?: number; unstable?: boolean };
+  /**
+   * The tensions between the cell types of classes.types (walls of different tension); each candidate
+   * relaxes with its walls' tensions. @default every tension 1
+   */
+  tensions?: TensionTable;
 }
 
 /** One relaxed candidate, as plain data (it crosses thread boundaries). */
@@ -76,7 +82,8 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
   const options = { ...task.newton, ...task.search, seed: task.seed };
   const solve = (s: Int32Array, from: Equilibrium | null): CandidateResult => {
     const areas = areasOf(s, task.classes);
-    const search = findEquilibria(cluster.map, areas, options, from !== null && warm ? from : null);
+    const tensions = wallTensions(cluster.map, typesOf(s, task.classes), task.tensions);
+    const search = findEquilibria(cluster.map, areas, tensions === null ? options : { ...options, tensions }, from !== null && warm ? from : null);
     const eq = searchAnswer(search);
     const becomes = eq.status === 'wall-collapse' && eq.collapsingWall !== null ? wallSwapCode(cluster, eq.collapsingWall) : null;
     const result = { code: task.code, assignment: [...s], search, equilibrium: eq, becomes };
@@ -97,7 +104,7 @@ export function evaluateCluster(task: ClusterTask): CandidateResult[] {
 /**
  * Local search over assignments: starts from the placement with larger areas on cells with more sides,
  * then from seeded random placements; from each, exchange the areas of two cells and keep an exchange
- * that lowers the perimeter (first improvement, re-relaxing from the current geometry), until no
+ * that lowers the energy (the perimeter at unit tension; first improvement, re-relaxing from the current geometry), until no
  * exchange helps or `cap` candidates have been tried.
  */
 function searchCluster(
@@ -147,7 +154,7 @@ function searchCluster(
           const t = Int32Array.from(s);
           [t[i], t[j]] = [t[j], t[i]];
           const r = tryOne(t, current.equilibrium);
-          if (r !== null && r.equilibrium.status === 'ok' && r.equilibrium.perimeter < current.equilibrium.perimeter) {
+          if (r !== null && r.equilibrium.status === 'ok' && r.equilibrium.energy < current.equilibrium.energy) {
             current = r;
             improved = true;
           }

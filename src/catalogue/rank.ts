@@ -15,6 +15,7 @@ import { withPool } from './pool.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import { DEFAULT_STARTS, type FoundEquilibrium } from '../solver/equilibria.ts';
 import type { Equilibrium } from '../solver/result.ts';
+import { type CellTyping, tensionPairs } from '../solver/tensions.ts';
 import { type AreaClasses, areaClasses, orbitCount, userIndices } from './assign.ts';
 import { type CandidateResult, type ClusterTask, evaluateCluster } from './evaluate.ts';
 import { type ArrangementFilter, checkFilter, isFiltering, passesFilter } from './filter.ts';
@@ -54,6 +55,11 @@ export interface RankOptions {
   onProgress?: (done: number, total: number) => void;
   /** Options of the relaxer. */
   newton?: NewtonOptions;
+  /**
+   * Cell types and the tensions between them (walls of different tension): cells of one type with
+   * equal areas are one class, and the ranking is by energy. @default untyped, every tension 1
+   */
+  typing?: CellTyping;
 }
 
 /**
@@ -171,7 +177,11 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
   const seed = options.seed ?? 1;
   const starts = startCount(options.starts);
   const unstable = options.unstable === true;
-  const classes = areaClasses([...areas]);
+  const typing = options.typing;
+  if (typing !== undefined && typing.types.length !== n) {
+    throw new UsageError(`Got ${typing.types.length} types when expected ${n}, one per area.`);
+  }
+  const classes = areaClasses([...areas], typing?.types);
 
   // enumerate, keep the filtered arrangements, and check the rooting identity on all of them
   const planned: Planned[] = [];
@@ -200,9 +210,13 @@ export function planRanking(areas: readonly number[], options: RankOptions = {})
     // (starts left to the search's default when not asked for: the default tries its later starts only
     // where the first gives no verdict, solver/equilibria.ts DEFAULT_STARTS)
     cap: Math.min(cap, p.candidates), seed: seed + k, newton: options.newton, search: { starts: options.starts, unstable },
+    ...(typing === undefined ? {} : { tensions: typing.table }),
   }));
   return {
-    query: { areas: [...areas], filter, budgetSeconds, seed, starts, unstable },
+    query: {
+      areas: [...areas], filter, budgetSeconds, seed, starts, unstable,
+      ...(typing === undefined ? {} : { types: typing.types.map((t) => typing.table.labels[t]), tensions: tensionPairs(typing) }),
+    },
     enumerated,
     rootings: {
       sum: n >= 2 ? String(rootings) : '0',
@@ -321,6 +335,7 @@ export function candidateKey(e: { code: string; assignment: readonly number[] })
 export function unrankedEntries(plan: RankPlan, k: number, results: readonly CandidateResult[]): CatalogueEntry[] {
   const p = plan.planned[k];
   const areas = plan.query.areas;
+  const typed = plan.query.types !== undefined;
   const out: CatalogueEntry[] = [];
   for (const r of results) {
     const assignment = userIndices(Int32Array.from(r.assignment), plan.classes);
@@ -329,9 +344,9 @@ export function unrankedEntries(plan: RankPlan, k: number, results: readonly Can
     if (r.search.found.length === 0) {
       const eq = r.search.failure ?? r.equilibrium;
       const becomes = r.becomes === null ? null : { code: r.becomes, id: plan.ids.get(r.becomes) ?? '?' };
-      out.push(entryOf(candidate, eq, null, tried, becomes));
+      out.push(entryOf(candidate, eq, null, tried, becomes, typed));
     } else {
-      for (const found of r.search.found) out.push(entryOf(candidate, found.equilibrium, found, tried, null));
+      for (const found of r.search.found) out.push(entryOf(candidate, found.equilibrium, found, tried, null, typed));
     }
   }
   return out;
@@ -340,7 +355,7 @@ export function unrankedEntries(plan: RankPlan, k: number, results: readonly Can
 /** One entry: the candidate's fields, then the answer's (a certified one when `found` is given). */
 function entryOf(
   candidate: Pick<CatalogueEntry, 'id' | 'code' | 'sides' | 'assignment' | 'cellAreas'>, eq: Equilibrium,
-  found: FoundEquilibrium | null, tried: number, becomes: CatalogueEntry['becomes'],
+  found: FoundEquilibrium | null, tried: number, becomes: CatalogueEntry['becomes'], typed: boolean,
 ): CatalogueEntry {
   const ok = eq.status === 'ok';
   return {
@@ -348,6 +363,7 @@ function entryOf(
     ...candidate,
     status: eq.status,
     perimeter: ok ? eq.perimeter : null,
+    ...(typed ? { energy: ok ? eq.energy : null } : {}),
     gapPercent: null,
     index: ok ? eq.index : null,
     zeroModes: ok ? eq.zeroModes : null,
@@ -364,7 +380,15 @@ function entryOf(
   };
 }
 
-/** A perimeter as the ranking compares it: ORDER_DIGITS significant digits. */
+/**
+ * What the ranking orders: the energy in a typed catalogue (its entries carry `energy`), else the
+ * perimeter; null for a failure.
+ */
+export function rankedValue(e: { perimeter: number | null; energy?: number | null }): number | null {
+  return e.energy === undefined ? e.perimeter : e.energy;
+}
+
+/** A perimeter (or energy) as the ranking compares it: ORDER_DIGITS significant digits. */
 export function orderPerimeter(p: number): number {
   return Number(p.toPrecision(ORDER_DIGITS));
 }
@@ -375,8 +399,8 @@ export function orderPerimeter(p: number): number {
  * every stable equilibrium means the search missed the minimiser it descends to; rank 1 stays the
  * least stable equilibrium, the ranking's answer.
  */
-export function rankingPerimeter(e: { perimeter: number | null; index: number | null }, floor: number): number {
-  const p = orderPerimeter(e.perimeter!);
+export function rankingPerimeter(e: { perimeter: number | null; energy?: number | null; index: number | null }, floor: number): number {
+  const p = orderPerimeter(rankedValue(e) as number);
   return e.index === 0 ? p : Math.max(p, floor);
 }
 
@@ -391,7 +415,7 @@ const compareText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 
 function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
   const key = (e: CatalogueEntry) => e.assignment.join(',');
   let floor = Infinity;
-  for (const e of entries) if (e.perimeter !== null && e.index === 0) floor = Math.min(floor, orderPerimeter(e.perimeter));
+  for (const e of entries) if (e.perimeter !== null && e.index === 0) floor = Math.min(floor, orderPerimeter(rankedValue(e) as number));
   if (floor === Infinity) floor = -Infinity;
   entries.sort((a, b) => {
     if (a.perimeter !== null && b.perimeter !== null) {
@@ -404,15 +428,15 @@ function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
     const byCandidate = compareText(a.code, b.code) || compareText(key(a), key(b));
     if (byCandidate !== 0 || a.perimeter === null || b.perimeter === null) return byCandidate;
     // two equilibria of one candidate at the same rounded perimeter
-    return (a.zeroModes! - b.zeroModes!) || (a.perimeter - b.perimeter) ||
+    return (a.zeroModes! - b.zeroModes!) || ((rankedValue(a) as number) - (rankedValue(b) as number)) ||
       compareText(JSON.stringify(a.family), JSON.stringify(b.family)) || compareText(JSON.stringify(a.geometry), JSON.stringify(b.geometry));
   });
-  const best = entries.length > 0 && entries[0].perimeter !== null ? entries[0].perimeter : null;
+  const best = entries.length > 0 && entries[0].perimeter !== null ? rankedValue(entries[0]) : null;
   let rank = 0;
   for (const e of entries) {
     if (e.perimeter === null || best === null) continue;
     e.rank = ++rank;
-    e.gapPercent = (100 * (e.perimeter - best)) / best;
+    e.gapPercent = (100 * ((rankedValue(e) as number) - best)) / best;
   }
   return entries;
 }

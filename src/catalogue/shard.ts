@@ -7,6 +7,7 @@
 // machine cuts the same shards). The merge checks that the parts belong together and cover every
 // arrangement exactly once, then ranks and counts with the code a single run uses (assembleCatalogue).
 
+import { typingOfPairs } from '../solver/tensions.ts';
 import { UsageError } from '../errors.ts';
 import {
   type RankOptions, type RankPlan, assembleCatalogue, candidateKey, planRanking, runTasks, unrankedEntries, workerCount,
@@ -142,6 +143,7 @@ export function mergeParts(parts: readonly { part: RankPart; source: string }[],
   const q = first.part.query;
   const plan = planRanking(q.areas, {
     ...options, filter: q.filter, budgetSeconds: q.budgetSeconds, seed: q.seed, starts: q.starts, unstable: q.unstable,
+    ...(q.types === undefined ? {} : { typing: typingOfPairs(q.types, q.tensions ?? {}, q.areas.length) }),
   });
   if (JSON.stringify(totalsOf(plan)) !== JSON.stringify(first.part.totals)) {
     throw new UsageError(`Part ${first.source} has totals that this query does not give when expected parts of this ranking.`);

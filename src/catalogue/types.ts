@@ -52,6 +52,13 @@ export interface CatalogueQuery {
   starts: number;
   /** Whether saddles (index >= 1) were searched for (`--unstable`). Version 1 files: false. */
   unstable: boolean;
+  /**
+   * Cells of different types (walls of different tension): the type of each area, in `areas` order.
+   * Absent when untyped; then every tension is 1 and the ranking is by perimeter.
+   */
+  types?: string[];
+  /** With `types`: the tensions that are not 1, "a:b" (labels in order of first appearance, "out" first) to value. */
+  tensions?: Record<string, number>;
 }
 
 /** How much was done. */
@@ -104,9 +111,14 @@ export interface CatalogueEntry {
   cellAreas: number[];
   /** 'ok' or the failure kind. */
   status: string;
-  /** Perimeter of the equilibrium; null for failures. */
+  /** Perimeter (total wall length) of the equilibrium; null for failures. */
   perimeter: number | null;
-  /** Perimeter above the best, in percent; null for failures. */
+  /**
+   * In a typed catalogue (query.types): the energy, sum of tension times length, which the ranking
+   * orders (null for failures); absent otherwise.
+   */
+  energy?: number | null;
+  /** Perimeter (energy, when typed) above the best, in percent; null for failures. */
   gapPercent: number | null;
   /** Stability index and zero modes; null for failures. */
   index: number | null;

@@ -10,7 +10,8 @@ import { UsageError } from '../errors.ts';
 import type { Catalogue } from '../catalogue/types.ts';
 import { parseAreas } from './areas.ts';
 import { withRunFiles, writeOut } from './output.ts';
-import { entryDrawing, equilibriumDrawing } from './drawings.ts';
+import { entryDrawing, equilibriumDrawing, typedDrawing } from './drawings.ts';
+import { typingOfPairs } from '../solver/tensions.ts';
 import { areasForCluster } from './relax.ts';
 import { loadCatalogue } from './show.ts';
 import { cliStreams } from './streams.ts';
@@ -84,12 +85,18 @@ function catalogueSvg(what: string, given: number[] | undefined, style: { pressu
   const ranks: number[] = given ?? [1];
   checkRanks(ranks, catalogue, what);
   const items: SheetItem[] = [];
+  // a typed catalogue: cells by type, walls with their tensions, the energy in the caption
+  const { types, tensions } = catalogue.query;
+  const typing = types === undefined ? undefined : typingOfPairs(types, tensions ?? {}, types.length);
   for (const r of ranks) {
     const entry = catalogue.entries.find((e) => e.rank === r)!;
-    items.push({ drawing: entryDrawing(entry)!, rank: r, id: entry.id, perimeter: entry.perimeter ?? undefined, note: `index ${entry.index}` });
+    const drawing = typing === undefined ? entryDrawing(entry)! : typedDrawing(entryDrawing(entry)!, entry.assignment, typing);
+    const value = (typing === undefined ? entry.perimeter : entry.energy) ?? undefined;
+    items.push({ drawing, rank: r, id: entry.id, perimeter: value, ...(typing === undefined ? {} : { energy: true }), note: `index ${entry.index}` });
   }
+  const measure = typing === undefined ? 'perimeter' : 'energy';
   return items.length === 1 && given === undefined
-    ? renderClusterSvg({ ...items[0].drawing, caption: `#1  perimeter ${items[0].perimeter?.toPrecision(10)}` }, style)
+    ? renderClusterSvg({ ...items[0].drawing, caption: `#1  ${measure} ${items[0].perimeter?.toPrecision(10)}` }, style)
     : renderContactSheet(items, { ...style, title: `${what}: ranks ${ranks.join(', ')}` });
 }
 

@@ -1,6 +1,7 @@
 // cli stage: `lather merge PART... --out FILE`, the parts of a sharded ranking put back together into the
 // catalogue a single run writes (byte for byte), checked before anything is written.
 
+import { typingOfPairs } from '../solver/tensions.ts';
 import { readFileSync } from 'node:fs';
 import { type Command } from 'commander';
 import { readCatalogue, writeCatalogue } from '../catalogue/format.ts';
@@ -45,7 +46,10 @@ export function addMergeCommand(program: Command): void {
         const catalogue = readCatalogue(text, opts.out);
         out.write(catalogueFileBytes(text, opts.out));
         const top = catalogue.entries.filter((e) => e.rank !== null).slice(0, Math.min(opts.top, SHEET_LIMIT));
-        if (sheet !== null) sheet.write(entriesSheet(top, `areas ${catalogue.query.areas.join(', ')}`));
+        // (a typed ranking's sheet draws the cells by type)
+        const { areas, types, tensions } = catalogue.query;
+        const typing = types === undefined ? undefined : typingOfPairs(types, tensions ?? {}, areas.length);
+        if (sheet !== null) sheet.write(entriesSheet(top, `areas ${areas.join(', ')}`, typing));
         return catalogue;
       });
       writeOut(catalogueTable(catalogue, opts.top, false).join('\n') + '\n');

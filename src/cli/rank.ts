@@ -9,6 +9,7 @@ import { DEFAULT_STARTS } from '../solver/equilibria.ts';
 import { packageInfo } from '../version.ts';
 import { writeCatalogue } from '../catalogue/format.ts';
 import { areasFrom, parseAreas } from './areas.ts';
+import { type TensionText, parseTensions, parseTypes, typingFrom } from './tensions.ts';
 import { filterFromOptions, parseSeconds, parseShard, wholeNumber } from './parse.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { catalogueTable } from './table.ts';
@@ -16,6 +17,7 @@ import { catalogueFileBytes } from './show.ts';
 import { checkSheetTop, entriesSheet, SHEET_LIMIT } from './drawings.ts';
 import { startProgress, type Progress } from './progress.ts';
 import { cliStreams } from './streams.ts';
+import { type CellTyping, tensionPairs } from '../solver/tensions.ts';
 
 /** A shard of a ranking, 1-based. */
 interface Shard {
@@ -98,12 +100,21 @@ async function rankPart(areas: number[], shard: Shard, options: RankOptions, opt
   );
 }
 
+/** The heading of a ranking's contact sheet: the areas, and the types and tensions when typed. */
+function sheetTitle(areas: number[], typing: CellTyping | undefined): string {
+  if (typing === undefined) return `areas ${areas.join(', ')}`;
+  const pairs = Object.entries(tensionPairs(typing)).map(([k, v]) => `${k} ${v}`);
+  return `areas ${areas.map((a, i) => `${a}${typing.table.labels[typing.types[i]]}`).join(', ')}; tensions ${pairs.length > 0 ? pairs.join(', ') : 'all 1'}`;
+}
+
 /** Attach `rank` to the program. */
 export function addRankCommand(program: Command): void {
   program
     .command('rank')
     .option('--areas <list>', 'cell areas, comma separated, e.g. 1,1,2.5', parseAreas)
-    .option('--example <name>', 'a built-in example (tray-pair, tray-trio, tray-mixed, tray-six)')
+    .option('--example <name>', 'a built-in example (tray-pair, tray-trio, tray-mixed, tray-six, tray-dyed)')
+    .option('--types <list>', 'a type label per area, in --areas order, e.g. a,a,b,b (the outside is "out")', parseTypes)
+    .option('--tension <list>', 'tension of walls between two types, e.g. a:b=1.3,a:out=1 (default 1); ranks by energy', parseTensions)
     .option('--top <k>', 'rows shown of equilibria and of failures', wholeNumber(1, undefined, 'Top'), 25)
     .option('--stable-only', 'show only equilibria of index 0')
     .option('--three-connected', 'only arrangements whose map is 3-connected')
@@ -128,6 +139,7 @@ export function addRankCommand(program: Command): void {
     )
     .action(async (opts, command: Command) => {
       const areas = areasFrom(opts);
+      const typing = typingFrom(opts as { types?: string[]; tension?: TensionText[]; example?: string }, areas.length);
       const filter = filterFromOptions(opts);
       const workers = workersFrom(opts);
       checkSheetTop(opts.top, command.getOptionValueSource('top') === 'cli', opts.sheet);
@@ -139,7 +151,7 @@ export function addRankCommand(program: Command): void {
           }
         }
         await rankPart(areas, opts.shard === 'slurm' ? slurmShard(process.env) : opts.shard, {
-          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable),
+          filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable), typing,
         }, opts);
         return;
       }
@@ -151,6 +163,7 @@ export function addRankCommand(program: Command): void {
         let progress: Progress | null = null;
         const catalogue = await rankAreas(areas, {
           filter, budgetSeconds: opts.budget, workers, seed: opts.seed, large: opts.large, starts: opts.starts, unstable: Boolean(opts.unstable),
+          typing,
           onProgress: (done, total) => {
             progress ??= startProgress('relaxing', total);
             progress.update(done);
@@ -161,7 +174,7 @@ export function addRankCommand(program: Command): void {
         out?.write(catalogueFileBytes(writeCatalogue(catalogue), opts.out));
         if (sheet !== null) {
           const top = catalogue.entries.filter((e) => e.rank !== null && (!opts.stableOnly || e.index === 0)).slice(0, Math.min(opts.top, SHEET_LIMIT));
-          if (top.length > 0) sheet.write(entriesSheet(top, `areas ${areas.join(', ')}`));
+          if (top.length > 0) sheet.write(entriesSheet(top, sheetTitle(areas, typing), typing));
           else {
             files.discard(sheet);
             cliStreams().err.write('lather: no certified equilibrium to draw; no sheet written\n');

@@ -12,6 +12,8 @@ import type { Equilibrium } from '../solver/result.ts';
 import { renderClusterSvg } from '../render/svg.ts';
 import { UsageError } from '../errors.ts';
 import { parseAreas } from './areas.ts';
+import { type TensionText, parseTensions, parseTypes, typingFrom } from './tensions.ts';
+import { type CellTyping, isUnitTable, tensionPairs, wallTensions } from '../solver/tensions.ts';
 import { withRunFiles, writeOut } from './output.ts';
 import { equilibriumDrawing } from './drawings.ts';
 import { familyText, tableNumber } from './table.ts';
@@ -42,8 +44,9 @@ function e(x: number): string {
  * then, when it found more than one, every equilibrium found with its index, zero modes, lens range
  * and the starts that reached it.
  */
-export function relaxSummary(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch): string[] {
+export function relaxSummary(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch, typing?: CellTyping): string[] {
   const eq = searchAnswer(search);
+  const tensed = typing !== undefined && !isUnitTable(typing.table);
   const s = summarizeCluster(cluster);
   const lines = [`arrangement ${label}  code ${cluster.code}  (${cluster.cells} cells, sides ${s.sides.join(' ')}, outside ${s.outsideSides})`];
   const tried = plural(search.tried, 'start');
@@ -51,9 +54,15 @@ export function relaxSummary(label: string, cluster: Cluster, areas: Float64Arra
     const first = search.found[0];
     const stable = eq.index === 0 ? 'stable in its arrangement' : `a saddle, ${eq.index} unstable direction${eq.index === 1 ? '' : 's'}`;
     lines.push(`status ok: certified equilibrium, index ${eq.index} (${stable}), ${eq.zeroModes} zero mode${eq.zeroModes === 1 ? '' : 's'}, ${search.iterations} Newton iterations`);
-    lines.push(`perimeter ${tableNumber(eq.perimeter, 12)}`);
+    lines.push(tensed ? `energy ${tableNumber(eq.energy, 12)}  (total length ${tableNumber(eq.perimeter, 12)})` : `perimeter ${tableNumber(eq.perimeter, 12)}`);
     if (first.family !== null) lines.push(`a lens family: ${familyText(first.family)}`);
     if (search.tried > 1 || search.found.length > 1) lines.push(`reached by ${first.reached} of ${tried}; ${search.found.length} equilibri${search.found.length === 1 ? 'um' : 'a'} found`);
+  } else if (eq.status === 'junction-unbalanced') {
+    const [x, y, z] = eq.junctionTensions as [number, number, number];
+    lines.push(
+      `status junction-unbalanced: the walls at junction ${eq.unbalancedJunction} have tensions ${x}, ${y}, ${z}, one at least ` +
+        'the sum of the other two, so no junction of them balances (no equilibrium of this arrangement with these tensions)',
+    );
   } else if (eq.status === 'no-convergence') {
     // no convergence is no statement about existence
     lines.push(`status no-convergence: the solver did not converge (existence unknown) from ${tried}; ${search.iterations} Newton iterations`);
@@ -69,9 +78,10 @@ export function relaxSummary(label: string, cluster: Cluster, areas: Float64Arra
     lines.push(`status ${eq.status}: no equilibrium from ${tried}; ${how}; ${search.iterations} Newton iterations`);
   }
   lines.push('');
-  lines.push('cell  target area  achieved area  pressure  sides');
+  lines.push(`cell  target area  achieved area  pressure  sides${typing ? '  type' : ''}`);
   for (let i = 0; i < cluster.cells; i++) {
-    lines.push(`${String(i + 1).padStart(4)}  ${tableNumber(areas[i], 6).padStart(11)}  ${tableNumber(eq.areas[i]).padStart(13)}  ${tableNumber(eq.pressures[i], 6).padStart(8)}  ${s.sides[i]}`);
+    const type = typing ? `  ${typing.table.labels[typing.types[i]]}` : '';
+    lines.push(`${String(i + 1).padStart(4)}  ${tableNumber(areas[i], 6).padStart(11)}  ${tableNumber(eq.areas[i]).padStart(13)}  ${tableNumber(eq.pressures[i], 6).padStart(8)}  ${String(s.sides[i]).padStart(5)}${type}`);
   }
   const c = eq.certificate;
   lines.push('');
@@ -100,11 +110,12 @@ function foundTable(search: EquilibriumSearch, tried: string): string[] {
 /** One answer as plain JSON data. */
 function answerJson(cluster: Cluster, eq: Equilibrium): object {
   return {
-    status: eq.status, perimeter: eq.perimeter,
+    status: eq.status, perimeter: eq.perimeter, energy: eq.energy,
     pressures: [...eq.pressures], areas: [...eq.areas], coords: [...eq.coords], bulges: [...eq.bulges],
     curvatures: [...eq.curvatures], certificate: eq.certificate, index: eq.index, zeroModes: eq.zeroModes,
     iterations: eq.iterations, restarts: eq.restarts, collapsingWall: eq.collapsingWall,
     collapsingCell: eq.collapsingCell, becomes: t1Neighbour(cluster, eq),
+    ...(eq.status === 'junction-unbalanced' ? { unbalancedJunction: eq.unbalancedJunction, junctionTensions: eq.junctionTensions } : {}),
   };
 }
 
@@ -112,9 +123,11 @@ function answerJson(cluster: Cluster, eq: Equilibrium): object {
  * The whole search as plain JSON data: the first answer's fields at the top (as relax printed one answer
  * before it searched), then `tried` and `equilibria`, every equilibrium found with `reached` and `family`.
  */
-export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch): object {
+export function relaxJson(label: string, cluster: Cluster, areas: Float64Array, search: EquilibriumSearch, typing?: CellTyping): object {
   return {
-    arrangement: label, code: cluster.code, targetAreas: [...areas], ...answerJson(cluster, searchAnswer(search)),
+    arrangement: label, code: cluster.code, targetAreas: [...areas],
+    ...(typing ? { types: typing.types.map((t) => typing.table.labels[t]), tensions: tensionPairs(typing) } : {}),
+    ...answerJson(cluster, searchAnswer(search)),
     tried: search.tried,
     equilibria: search.found.map((f) => ({ ...answerJson(cluster, f.equilibrium), reached: f.reached, family: f.family })),
   };
@@ -132,18 +145,27 @@ export function addRelaxCommand(program: Command): void {
     .option('--junctions', 'mark junctions in the drawing')
     .option('--starts <k>', `first drawings tried (barycentric, construction path, then seeded perturbations; default ${DEFAULT_STARTS})`, wholeNumber(1, undefined, 'Starts'))
     .option('--unstable', 'also look for saddles (index >= 1)')
+    .option('--tension-labels', 'label each wall with its tension in the drawing')
+    .option('--types <list>', 'a type label per cell in cell order, e.g. a,a,b (the outside is "out")', parseTypes)
+    .option('--tension <list>', 'tension of walls between two types, e.g. a:b=1.4,a:out=1 (default 1)', parseTensions)
     .action(async (what: string, opts) => {
-      for (const option of ['pressures', 'junctions'] as const) {
-        if (opts[option] && !opts.svg) throw new UsageError(`Option --${option} given without --svg when expected it only with --svg (it styles the drawing).`);
+      for (const option of ['pressures', 'junctions', 'tensionLabels'] as const) {
+        const name = option === 'tensionLabels' ? 'tension-labels' : option;
+        if (opts[option] && !opts.svg) throw new UsageError(`Option --${name} given without --svg when expected it only with --svg (it styles the drawing).`);
       }
       const cluster = resolveArrangement(what);
       const areas = areasForCluster(cluster, opts.areas, what);
+      const typing = typingFrom(opts as { types?: string[]; tension?: TensionText[] }, cluster.cells);
+      const tensions = typing ? wallTensions(cluster.map, typing.types, typing.table) : null;
       const search = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {
-        const search = findEquilibria(cluster.map, areas, { starts: opts.starts, unstable: Boolean(opts.unstable) });
-        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, searchAnswer(search), what), { pressures: opts.pressures, junctions: opts.junctions }));
+        const search = findEquilibria(cluster.map, areas, { starts: opts.starts, unstable: Boolean(opts.unstable), tensions });
+        const typed = typing === undefined ? undefined : { cellTypes: typing.types, typeLabels: typing.table.labels, tensions };
+        svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, searchAnswer(search), what, typed), {
+          pressures: opts.pressures, junctions: opts.junctions, tensions: opts.tensionLabels,
+        }));
         return search;
       });
-      const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, search), null, 2) : relaxSummary(what, cluster, areas, search).join('\n');
+      const text = opts.json ? JSON.stringify(relaxJson(what, cluster, areas, search, typing), null, 2) : relaxSummary(what, cluster, areas, search, typing).join('\n');
       writeOut(text + '\n');
     });
 }

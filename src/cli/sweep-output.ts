@@ -2,6 +2,7 @@
 
 import { cellFormulasText, type SweepCandidate } from '../sweep/candidates.ts';
 import type { PathSweep, RegionSweep } from '../sweep/types.ts';
+import type { SweepTyping } from '../sweep/tensions.ts';
 import type { TrackedState } from '../sweep/track.ts';
 import { renderPathPlot, renderRegionMap, type PathSeries, type WinnerBand, type PathEvent } from '../render/plot.ts';
 import type { RegionArrangement } from '../render/plot.ts';
@@ -28,6 +29,12 @@ function relaxationText(s: PathSweep | RegionSweep): string {
   return `${r.cold + r.warm + r.probe} relaxations (${r.cold} cold, ${r.warm} warm, ${r.probe} probes)`;
 }
 
+/** "types a a b b; tensions a:b = t" of a typed sweep (every pair not named has tension 1). */
+function typingText(typing: SweepTyping): string {
+  const pairs = typing.tensions.map(({ i, j, formula }) => `${typing.labels[i]}:${typing.labels[j]} = ${formula.source}`);
+  return `types ${typing.types.map((t) => typing.labels[t]).join(' ')} by area; tensions ${pairs.length > 0 ? pairs.join(', ') : 'all 1'} (others 1); ranked by energy`;
+}
+
 /** The lines `lather sweep` prints for a path: header, intervals, transitions, boundaries. */
 export function pathTable(s: PathSweep): string[] {
   const C = s.set.candidates;
@@ -38,7 +45,9 @@ export function pathTable(s: PathSweep): string[] {
     '',
     'winner by interval',
   ];
-  const rows: string[][] = [['from', 'to', 'samples', 'id', 'sides', 'areas by cell', 'perimeter from', 'perimeter to']];
+  const measure = s.typing === undefined ? 'perimeter' : 'energy';
+  if (s.typing !== undefined) lines.splice(1, 0, typingText(s.typing));
+  const rows: string[][] = [['from', 'to', 'samples', 'id', 'sides', 'areas by cell', `${measure} from`, `${measure} to`]];
   s.intervals.forEach((iv, i) => {
     if (iv.winner === null) {
       rows.push([tableValue(iv.from), tableValue(iv.to), String(iv.samples), '-', '-', 'no certified equilibrium', '-', '-']);
@@ -54,7 +63,7 @@ export function pathTable(s: PathSweep): string[] {
   if (s.transitions.length === 0) lines.push('transitions: none (one winner on the whole range)');
   else {
     lines.push(`transitions (located to ${s.domain.parameter.name} +- the half-width shown)`);
-    const t: string[][] = [[parameter.name, '+-', 'from', 'to', 'kind', 'perimeter from', 'perimeter to']];
+    const t: string[][] = [[parameter.name, '+-', 'from', 'to', 'kind', `${measure} from`, `${measure} to`]];
     for (const x of s.transitions) {
       const from = x.from >= 0 ? who(C[x.from]) : '-';
       const to = x.to >= 0 ? who(C[x.to]) : '-';
@@ -66,7 +75,7 @@ export function pathTable(s: PathSweep): string[] {
   if (s.boundaries.length === 0) lines.push('existence boundaries of the competitors: none');
   else {
     lines.push(`existence boundaries of the ${s.competitors.length} competitors (ranked within the top ${Math.max(...s.ranked.map((r) => r.length))} somewhere)`);
-    const b: string[][] = [[parameter.name, 'id', 'sides', 'areas by cell', 'exists', 'perimeter', 'failure beyond']];
+    const b: string[][] = [[parameter.name, 'id', 'sides', 'areas by cell', 'exists', measure, 'failure beyond']];
     for (const x of s.boundaries) {
       const c = C[x.candidate];
       let failure = x.status === 'wall-collapse'
@@ -90,6 +99,7 @@ export function regionTable(s: RegionSweep): string[] {
   const lines = [
     `${plural(s.formulas.length, 'cell')}, areas ${s.formulas.map((f) => f.source).join(', ')}; ${where}: ` +
       `${plural(s.counts.arrangements, 'arrangement')}, ${plural(s.counts.candidates, 'candidate')}, ${relaxationText(s)}`,
+    ...(s.typing === undefined ? [] : [typingText(s.typing)]),
     '',
     'regions (connected samples with one winner)',
   ];
@@ -136,7 +146,7 @@ export function pathPlot(s: PathSweep): string {
       run = winnerAt[k] === c ? run + 1 : 0;
       const state = s.states[c][k];
       if (state === null) continue;
-      const score = run > 0 ? run : -(state.equilibrium.perimeter / (s.ranked[k][0]?.perimeter ?? 1));
+      const score = run > 0 ? run : -(state.equilibrium.energy / (s.ranked[k][0]?.perimeter ?? 1));
       if (score > bestScore) {
         bestScore = score;
         best = run > 0 ? k - ((run - 1) >> 1) : k;
@@ -146,7 +156,7 @@ export function pathPlot(s: PathSweep): string {
     return {
       key: `c${c}`,
       label: who(C[c]),
-      perimeters: s.states[c].map((st) => (st === null ? null : st.equilibrium.perimeter)),
+      perimeters: s.states[c].map((st) => (st === null ? null : st.equilibrium.energy)),
       drawing: state === null ? undefined : drawingOf(C[c], state),
     };
   });
@@ -154,6 +164,7 @@ export function pathPlot(s: PathSweep): string {
   const events: PathEvent[] = s.boundaries.map((b) => ({ x: b.at, label: C[b.candidate].id }));
   return renderPathPlot({
     xs: s.xs, series, bands, events, parameter: s.domain.parameter.name, logX: s.domain.log,
+    ...(s.typing === undefined ? {} : { measure: 'energy' }),
     title: `areas ${s.formulas.map((f) => f.source).join(', ')}`,
   });
 }

@@ -3,7 +3,10 @@
 import { type Command } from 'commander';
 import type { ArrangementFilter } from '../catalogue/filter.ts';
 import { UsageError } from '../errors.ts';
-import { parseAreaFormulas } from '../sweep/formula.ts';
+import { parseAreaFormulas, parseFormula } from '../sweep/formula.ts';
+import { cellTyping } from '../solver/tensions.ts';
+import type { SweepTyping } from '../sweep/tensions.ts';
+import { type TensionText, parseTensions, parseTypes } from './tensions.ts';
 import {
   type SweepDomain, SAMPLE_LIMIT, checkFormulasOnDomain, checkParametersUsed, checkSampleCount, parameterNames, parseShares, parseVary,
 } from '../sweep/domain.ts';
@@ -43,6 +46,24 @@ function domainFrom(opts: { vary?: string; shares?: string; samples?: number; lo
   return { kind: 'grid', parameters: [ranges[0], ranges[1]], samples: opts.samples ?? DEFAULT_SAMPLES.grid, log };
 }
 
+/**
+ * The typing of --types and --tension (tensions as formulas of the parameters), or undefined.
+ * @throws UsageError for --tension without --types or bad labels; FormulaError for a bad formula.
+ */
+function sweepTypingFrom(opts: { types?: string[]; tension?: TensionText[] }, cells: number, parameters: string[]): SweepTyping | undefined {
+  if (opts.types === undefined) {
+    if (opts.tension !== undefined) throw new UsageError('Option --tension given without --types when expected --types a,b,... naming each area\'s type.');
+    return undefined;
+  }
+  const items = opts.tension ?? [];
+  // the labels and pairs checked as for numbers; the values are formulas
+  const { table, types } = cellTyping(opts.types, items.map(({ a, b }) => ({ a, b, value: 1 })), cells);
+  const tensions = items.map(({ a, b, text }) => ({
+    i: table.labels.indexOf(a), j: table.labels.indexOf(b), formula: parseFormula(text, parameters, `Tension ${a}:${b} "${text}"`),
+  }));
+  return { labels: table.labels, types, tensions };
+}
+
 /** Attach `sweep` to the program. */
 export function addSweepCommand(program: Command): void {
   program
@@ -59,19 +80,22 @@ export function addSweepCommand(program: Command): void {
     .option('--min-sides <k>', 'only arrangements whose cells have at least k sides', wholeNumber(1, undefined, 'Sides'))
     .option('--json [file]', 'write every sample, transition and boundary as JSON to the file (or to stdout instead of the table)')
     .option('--plot <file.svg>', 'draw the path plot or the region map')
+    .option('--types <list>', 'a type label per area, in --areas order, e.g. a,a,b,b (the outside is "out")', parseTypes)
+    .option('--tension <list>', 'tension of walls between two types, a number or a formula of the parameters, e.g. "a:b=t,a:out=1" (default 1)', parseTensions)
     .action(async (opts) => {
       // everything is checked before any relaxing
       const domain = domainFrom(opts);
       checkSampleCount(domain);
       const formulas = parseAreaFormulas(opts.areas, parameterNames(domain));
-      checkParametersUsed(formulas, domain);
+      const typing = sweepTypingFrom(opts, formulas.length, parameterNames(domain));
+      checkParametersUsed(formulas, domain, typing?.tensions.map((t) => t.formula));
       checkFormulasOnDomain(formulas, domain);
       const filter = filterFromOptions(opts);
       const declare = (files: RunFiles) => ({
         json: typeof opts.json === 'string' ? files.add(opts.json, '--json') : null,
         plot: opts.plot === undefined ? null : files.add(opts.plot, '--plot'),
       });
-      const text = await withRunFiles([], declare, (outputs) => sweepTo(formulas, domain, filter, opts.competitors, opts.json === true, outputs));
+      const text = await withRunFiles([], declare, (outputs) => sweepTo(formulas, domain, filter, opts.competitors, opts.json === true, outputs, typing));
       writeOut(text);
     });
 }
@@ -79,7 +103,7 @@ export function addSweepCommand(program: Command): void {
 /** Sweep, write the JSON and the plot files asked for, and return what standard output gets. */
 function sweepTo(
   formulas: ReturnType<typeof parseAreaFormulas>, domain: SweepDomain, filter: ArrangementFilter, competitors: number,
-  jsonToStdout: boolean, outputs: { json: OutputFile | null; plot: OutputFile | null },
+  jsonToStdout: boolean, outputs: { json: OutputFile | null; plot: OutputFile | null }, typing: SweepTyping | undefined,
 ): string {
   let progress: Progress | null = null;
   const onProgress = (done: number, total: number): void => {
@@ -91,12 +115,12 @@ function sweepTo(
   let lines: string[];
   let svg: () => string;
   if (domain.kind === 'path') {
-    const s = sweepPath(formulas, domain, { filter, competitors, onProgress });
+    const s = sweepPath(formulas, domain, { filter, competitors, onProgress, typing });
     json = pathSweepJson(s, query);
     lines = pathTable(s);
     svg = () => pathPlot(s);
   } else {
-    const s = sweepRegion(formulas, domain, { filter, competitors, onProgress });
+    const s = sweepRegion(formulas, domain, { filter, competitors, onProgress, typing });
     json = regionSweepJson(s, query);
     lines = regionTable(s);
     svg = () => regionPlot(s);

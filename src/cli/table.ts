@@ -21,8 +21,8 @@ export function tableValue(x: number): string {
 }
 
 /** Which area sits in which cell, e.g. "1:2.5 2:1 3:1". */
-export function cellAreasText(e: CatalogueEntry): string {
-  return e.cellAreas.map((a, i) => `${i + 1}:${a}`).join(' ');
+export function cellAreasText(e: CatalogueEntry, types?: readonly string[]): string {
+  return e.cellAreas.map((a, i) => `${i + 1}:${a}${types === undefined ? '' : `(${types[e.assignment[i]]})`}`).join(' ');
 }
 
 function stabilityText(e: CatalogueEntry): string {
@@ -56,6 +56,7 @@ export function failureText(e: Pick<CatalogueEntry, 'status' | 'collapsingWall' 
     how = `the flow collapses wall ${e.collapsingWall} (${to})`;
   } else if (e.status === 'cell-collapse') how = `the flow collapses cell ${e.collapsingCell}`;
   else if (e.status === 'walls-cross') how = 'the walls cross';
+  else if (e.status === 'junction-unbalanced') how = 'a junction\'s three tensions cannot balance (one at least the sum of the others)';
   else how = `the branch folds back`;
   return `${e.status}: no equilibrium from ${from}; ${how}`;
 }
@@ -82,21 +83,29 @@ export function catalogueTable(c: Catalogue, top: number, stableOnly: boolean): 
   const failed = Object.values(k.failures).reduce((p, v) => p + v, 0);
   const saddles = k.saddles > 0 || q.unstable ? `, ${plural(k.saddles, 'saddle')}` : '';
   lines.push(`${k.equilibria} certified equilibria (${k.stable} stable${saddles}), ${failed} failures${kinds ? ` (${kinds})` : ''}`);
+  // cells of different types: ranked by energy, the total length beside it
+  const types = q.types;
+  if (types !== undefined) {
+    const pairs = Object.entries(q.tensions ?? {}).map(([pair, v]) => `${pair} ${v}`);
+    lines.push(`types ${types.join(' ')} by area; tensions ${pairs.length > 0 ? pairs.join(', ') : 'all 1'} (others 1); ranked by energy`);
+  }
   lines.push('');
   const withStarts = c.entries.some((e) => e.tried > 1);
   const ranked = c.entries.filter((e) => e.rank !== null && (!stableOnly || e.index === 0));
-  const head = ['rank', 'perimeter', 'gap %', 'id', 'sides', 'areas by cell', 'index', ...(withStarts ? ['reached'] : []), 'status'];
+  const measures = types === undefined ? ['perimeter'] : ['energy', 'length'];
+  const head = ['rank', ...measures, 'gap %', 'id', 'sides', 'areas by cell', 'index', ...(withStarts ? ['reached'] : []), 'status'];
   const rows: string[][] = ranked.slice(0, top).map((e) => [
-    String(e.rank), tableNumber(e.perimeter!), e.gapPercent!.toFixed(3), e.id, e.sides.join(''), cellAreasText(e), stabilityText(e),
-    ...(withStarts ? [`${e.reached}/${e.tried}`] : []), equilibriumText(e),
+    String(e.rank), ...(types === undefined ? [] : [tableNumber(e.energy!)]), tableNumber(e.perimeter!), e.gapPercent!.toFixed(3), e.id,
+    e.sides.join(''), cellAreasText(e, types), stabilityText(e), ...(withStarts ? [`${e.reached}/${e.tried}`] : []), equilibriumText(e),
   ]);
   const failures = c.entries.filter((e) => e.rank === null);
   const failRows: string[][] = stableOnly ? [] : failures.slice(0, top).map((e) => [
-    '-', '-', '-', e.id, e.sides.join(''), cellAreasText(e), '-', ...(withStarts ? [`0/${e.tried}`] : []), failureText(e),
+    '-', ...measures.map(() => '-'), '-', e.id, e.sides.join(''), cellAreasText(e, types), '-', ...(withStarts ? [`0/${e.tried}`] : []), failureText(e),
   ]);
   const all = [head, ...rows, ...failRows];
   const widths = head.map((_, j) => Math.max(...all.map((r) => r[j].length)));
-  const line = (r: string[]) => r.map((cell, j) => (j <= 2 ? cell.padStart(widths[j]) : cell.padEnd(widths[j]))).join('  ').trimEnd();
+  const numeric = 1 + measures.length;
+  const line = (r: string[]) => r.map((cell, j) => (j <= numeric ? cell.padStart(widths[j]) : cell.padEnd(widths[j]))).join('  ').trimEnd();
   lines.push(line(head));
   for (const r of rows) lines.push(line(r));
   if (ranked.length > top) lines.push(`... ${ranked.length - top} more equilibria (--top ${ranked.length} shows them)`);

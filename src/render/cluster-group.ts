@@ -26,6 +26,8 @@ export interface ClusterStyle {
   readonly palette?: readonly string[];
   /** Significant digits of areas and pressures in labels. @default 4 */
   readonly labelDigits?: number;
+  /** Label every wall with its tension at its middle, when the drawing has tensions. @default false */
+  readonly tensions?: boolean;
 }
 
 /** Smallest label font size in screen pixels before the label falls back to the cell number alone. */
@@ -86,8 +88,11 @@ export function renderClusterGroup(drawing: ClusterDrawing, placement: Placement
   const wallStyle = `fill="none" stroke="${INK}" stroke-width="${fixed(strokeWidth, 2)}" stroke-linejoin="round" stroke-linecap="round" vector-effect="non-scaling-stroke"`;
   const walls = map.wallIndex();
   const labels: LabelPoint[] = [];
+  // typed cells take their type's colour (type 1 the palette's first), untyped ones their number's
+  const types = drawing.cellTypes;
   for (let f = 1; f <= cells; f++) {
-    out.push(`<path class="cell" data-cell="${f}" fill="${cellFill(f, palette)}" d="${traceCell(scaled, f, undefined, digits)}"/>`);
+    const fill = cellFill(types === undefined ? f : types[f - 1], palette);
+    out.push(`<path class="cell" data-cell="${f}" fill="${fill}" d="${traceCell(scaled, f, undefined, digits)}"/>`);
     // the circle's label goes at its centre, with its radius as clearance
     const centre = { x: -pxPerUnit * originX, y: -pxPerUnit * originY, clearance: Math.sqrt(scaled.areas[0] / Math.PI) };
     labels.push(circle ? centre : labelPoint(scaled, walls, f));
@@ -109,9 +114,29 @@ export function renderClusterGroup(drawing: ClusterDrawing, placement: Placement
     const significant = style.labelDigits ?? 4;
     out.push(`<g class="labels" font-family="sans-serif" text-anchor="middle" fill="${INK}">`);
     for (let i = 0; i < cells; i++) {
-      const lines = [String(i + 1), `A = ${formatValue(areas[i], significant)}`];
+      // (the type is written in the label too: colour is never the only cue)
+      const type = types === undefined || drawing.typeLabels === undefined ? '' : ` ${drawing.typeLabels[types[i]]}`;
+      const lines = [`${i + 1}${type}`, `A = ${formatValue(areas[i], significant)}`];
       if (style.pressures === true && pressures !== undefined) lines.push(`p = ${formatValue(pressures[i], significant)}`);
       out.push(labelSvg(lines, labels[i], fontPx, n));
+    }
+    out.push('</g>');
+  }
+  if (style.tensions === true && drawing.tensions !== undefined && map.junctionCount > 0) {
+    const fontPx = 0.8 * (style.fontSizePx ?? 12);
+    out.push(`<g class="tensions" font-family="sans-serif" font-style="italic" text-anchor="middle" fill="${INK}">`);
+    for (let e = 0; e < map.twins.length; e++) {
+      if (e > map.twins[e]) continue;
+      const k = walls[e];
+      const a = 2 * ((e / 3) | 0);
+      const b = 2 * ((map.twins[e] / 3) | 0);
+      // the arc's middle: the chord's middle moved by the sagitta (c/2) tan(t/2) along the left normal
+      const dx = coords[b] - coords[a];
+      const dy = coords[b + 1] - coords[a + 1];
+      const s = 0.5 * Math.tan(0.5 * drawing.bulges[k]);
+      const x = 0.5 * (coords[a] + coords[b]) - s * dy;
+      const y = 0.5 * (coords[a + 1] + coords[b + 1]) + s * dx;
+      out.push(`<text x="${n(x)}" y="${n(-y + 0.35 * fontPx)}" font-size="${n(fontPx)}" stroke="#ffffff" stroke-width="3" paint-order="stroke">${formatValue(drawing.tensions[k], 3)}</text>`);
     }
     out.push('</g>');
   }

@@ -6,6 +6,7 @@ import type { Cluster } from '../maps/cluster.ts';
 import type { CatalogueEntry } from '../catalogue/types.ts';
 import type { Equilibrium } from '../solver/result.ts';
 import type { ClusterDrawing } from './types.ts';
+import { type CellTyping, wallTensions } from '../solver/tensions.ts';
 
 /** The drawing of a certified catalogue entry (null for a failure, which has no geometry). */
 export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
@@ -21,8 +22,17 @@ export function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
   };
 }
 
-/** The drawing of a relaxer answer (for a failure: where the solve stopped). */
-export function equilibriumDrawing(cluster: Cluster, areas: Float64Array, eq: Equilibrium, title: string): ClusterDrawing {
+/**
+ * The drawing of a relaxer answer (for a failure: where the solve stopped); with `typed`, its cells'
+ * types and walls' tensions (the caption then gives the energy).
+ */
+export function equilibriumDrawing(
+  cluster: Cluster, areas: Float64Array, eq: Equilibrium, title: string,
+  typed?: { cellTypes: ArrayLike<number>; typeLabels: readonly string[]; tensions: Float64Array | null },
+): ClusterDrawing {
+  const caption = typed?.tensions
+    ? `energy ${eq.energy.toPrecision(10)}, length ${eq.perimeter.toPrecision(10)}  (${eq.status})`
+    : `perimeter ${eq.perimeter.toPrecision(10)}  (${eq.status})`;
   return {
     map: cluster.map,
     coords: eq.coords,
@@ -30,6 +40,15 @@ export function equilibriumDrawing(cluster: Cluster, areas: Float64Array, eq: Eq
     areas,
     pressures: eq.pressures,
     title,
-    caption: `perimeter ${eq.perimeter.toPrecision(10)}  (${eq.status})`,
+    caption,
+    ...(typed === undefined ? {} : { cellTypes: typed.cellTypes, typeLabels: typed.typeLabels }),
+    ...(typed?.tensions ? { tensions: typed.tensions } : {}),
   };
+}
+
+/** A drawing with the types of its cells (cell i + 1 holds the query's area assignment[i]) and its walls' tensions. */
+export function typedDrawing(drawing: ClusterDrawing, assignment: readonly number[], typing: CellTyping): ClusterDrawing {
+  const cellTypes = assignment.map((i) => typing.types[i]);
+  const tensions = wallTensions(drawing.map, cellTypes, typing.table);
+  return { ...drawing, cellTypes, typeLabels: typing.table.labels, ...(tensions === null ? {} : { tensions }) };
 }

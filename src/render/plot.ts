@@ -57,6 +57,8 @@ export interface PathPlotOptions {
   readonly logX?: boolean;
   /** Heading over the plot. */
   readonly title?: string;
+  /** What the series measure, in the y axis title ('energy' when tensions are not all 1). @default 'perimeter' */
+  readonly measure?: string;
   /** Width of the picture in pixels. @default 760 */
   readonly widthPx?: number;
   /** Height of the picture in pixels. @default 460 */
@@ -201,7 +203,7 @@ export function renderPathPlot(options: PathPlotOptions): string {
     }
   }
   out.push('</g>');
-  out.push(yAxisSvg(yAxis, left, 'perimeter above the winner (%)', n, right));
+  out.push(yAxisSvg(yAxis, left, `${options.measure ?? 'perimeter'} above the winner (%)`, n, right));
   out.push(xAxisSvg(xAxis, plotBottom, options.parameter ?? 't', n));
 
   // transitions and events

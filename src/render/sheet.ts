@@ -16,8 +16,10 @@ export interface SheetItem {
   readonly rank?: number;
   /** The arrangement's id or code. */
   readonly id?: string;
-  /** Perimeter, shown as "P = ...". */
+  /** Perimeter, shown as "P = ..." (or an energy, shown as "E = ...", with `energy`). */
   readonly perimeter?: number;
+  /** Whether `perimeter` is an energy (sum of tension times length). @default false */
+  readonly energy?: boolean;
   /** A short remark after the perimeter, e.g. "index 0". */
   readonly note?: string;
   /**
@@ -60,7 +62,7 @@ function captionLines(item: SheetItem, digits: number): string[] {
   const lines: string[] = [];
   const head = [item.rank === undefined ? '' : `#${item.rank}`, item.id ?? ''].filter((part) => part !== '').join('  ');
   if (head !== '') lines.push(head);
-  const tail = [item.perimeter === undefined ? '' : `P = ${formatValue(item.perimeter, digits)}`, item.note ?? '']
+  const tail = [item.perimeter === undefined ? '' : `${item.energy === true ? 'E' : 'P'} = ${formatValue(item.perimeter, digits)}`, item.note ?? '']
     .filter((part) => part !== '')
     .join('  ');
   if (tail !== '') lines.push(tail);

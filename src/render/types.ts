@@ -30,6 +30,15 @@ export interface ClusterDrawing {
   readonly title?: string;
   /** A line under the drawing, e.g. its perimeter. */
   readonly caption?: string;
+  /**
+   * Cell types (walls of different tension): cell i + 1 has type cellTypes[i], an index into
+   * typeLabels (never 0, the outside). Typed cells are filled by type and labelled with it.
+   */
+  readonly cellTypes?: ArrayLike<number>;
+  /** Type labels, typeLabels[0] the outside's ('out'). */
+  readonly typeLabels?: readonly string[];
+  /** Tension of each wall by wall index, for labels on the walls (style.tensions). Length E. */
+  readonly tensions?: Float64Array;
 }
 
 /** Number of cells n of a drawing (1 for the circle). */
@@ -56,6 +65,19 @@ export function checkDrawing(drawing: ClusterDrawing): void {
   }
   if (areas.length !== n) {
     throw new UsageError(`Drawing has ${areas.length} areas when expected ${n} (1 per cell).`);
+  }
+  const { cellTypes, typeLabels, tensions } = drawing;
+  if (cellTypes !== undefined) {
+    if (cellTypes.length !== n) throw new UsageError(`Drawing has ${cellTypes.length} cell types when expected ${n} (1 per cell).`);
+    for (let i = 0; i < n; i++) {
+      const t = cellTypes[i];
+      if (!(Number.isInteger(t) && t >= 1 && (typeLabels === undefined || t < typeLabels.length))) {
+        throw new UsageError(`Type of cell ${i + 1} is ${t} when expected a type index from 1${typeLabels === undefined ? '' : ` to ${typeLabels.length - 1}`}.`);
+      }
+    }
+  }
+  if (tensions !== undefined && tensions.length !== walls) {
+    throw new UsageError(`Drawing has ${tensions.length} tensions when expected ${walls} (1 per wall).`);
   }
   if (pressures !== undefined && pressures.length !== n) {
     throw new UsageError(`Drawing has ${pressures.length} pressures when expected ${n} (1 per cell).`);

@@ -6,7 +6,10 @@
 // segment areas as sector minus triangle, and the cells are walked through map.faceDarts; only the
 // search for crossing walls, a plane-geometry question, is shared (arcs/crossings.ts). The
 // certificate's entries are dimensionless: areas relative to each cell's target, curvatures relative to
-// |pressure difference| + 1/sqrt(A), A the smaller target area of the wall's two sides.
+// |pressure difference| + 1/sqrt(A), A the smaller target area of the wall's two sides. With wall
+// tensions s (design.md §8) the junction law is the Neumann triangle, sum s_i u_i = 0 (measured relative
+// to the largest of the three), and the wall law s kappa = pressure difference (relative to
+// |pressure difference| + s/sqrt(A)).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { STRAIGHT_BULGE, countCrossings } from '../arcs/crossings.ts';
@@ -15,11 +18,15 @@ import { STRAIGHT_BULGE, countCrossings } from '../arcs/crossings.ts';
 export interface Certificate {
   /** Largest |achieved - target| / target over the cells. */
   areaResidual: number;
-  /** Largest |sum of the three unit tangents| over the junctions (Plateau's 120-degree law). */
+  /**
+   * Largest |sum of the three unit tangents times their walls' tensions| / (largest of the three
+   * tensions) over the junctions (Plateau's 120-degree law at unit tension; the Neumann triangle).
+   */
   tangentResidual: number;
   /**
-   * Largest |curvature - pressure difference| / (|pressure difference| + 1/sqrt(A)) over the walls, A the
-   * smaller target area of the wall's two sides (Laplace-Young law, relative to the wall's own scale).
+   * Largest |tension x curvature - pressure difference| / (|pressure difference| + tension/sqrt(A)) over
+   * the walls, A the smaller target area of the wall's two sides (Laplace-Young law with tension,
+   * relative to the wall's own scale).
    */
   curvatureResidual: number;
   /** Shortest wall (arc length). */
@@ -78,10 +85,13 @@ export function certificatePasses(certificate: Certificate, tolerance: number): 
 }
 
 /**
- * Recompute the certificate of `result` for `map` and target `areas` (areas[i] for cell i + 1).
- * Non-finite inputs give Infinity residuals, never NaN.
+ * Recompute the certificate of `result` for `map` and target `areas` (areas[i] for cell i + 1), with
+ * wall `tensions` by map.wallIndex() (null or absent: every wall 1). Non-finite inputs give Infinity
+ * residuals, never NaN.
  */
-export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: EquilibriumGeometry): Certificate {
+export function checkEquilibrium(
+  map: CubicMap, areas: Float64Array, result: EquilibriumGeometry, tensions: Float64Array | null = null,
+): Certificate {
   const { twins, faceStarts, faceDarts } = map;
   const cells = areas.length;
   let total = 0;
@@ -92,10 +102,11 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
   if (twins.length === 0) {
     const p = pressures[0];
     const radius = Math.sqrt(areas[0] / Math.PI);
+    const s = tensions === null ? 1 : tensions[0];
     return finite({
       areaResidual: 0,
       tangentResidual: 0,
-      curvatureResidual: Math.abs(1 / radius - p) / (Math.abs(p) + 1 / unit),
+      curvatureResidual: Math.abs(s / radius - p) / (Math.abs(p) + s / unit),
       minWallLength: 2 * Math.PI * radius,
       minCellArea: areas[0],
       crossings: 0,
@@ -148,7 +159,8 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
     // relative to the wall's own scale: the smaller target area of its two sides (a wall between two
     // cells a billionth of the rest is judged at their size, not at the cluster's)
     const local = Math.min(fl > 0 ? areas[fl - 1] : Infinity, fr > 0 ? areas[fr - 1] : Infinity);
-    curvatureResidual = Math.max(curvatureResidual, Math.abs(curvature - jump) / (Math.abs(jump) + 1 / Math.sqrt(local)));
+    const s = tensions === null ? 1 : tensions[k];
+    curvatureResidual = Math.max(curvatureResidual, Math.abs(s * curvature - jump) / (Math.abs(jump) + s / Math.sqrt(local)));
   }
 
   // unit tangents at each junction, away from it, and their order
@@ -159,9 +171,12 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
   for (let v = 0; v < map.junctionCount; v++) {
     let sx = 0;
     let sy = 0;
+    let most = 0;
     for (let i = 0; i < 3; i++) {
       const e = 3 * v + i;
       const k = wallOf[e];
+      const s = tensions === null ? 1 : tensions[k];
+      if (s > most) most = s;
       const forward = e < twins[e];
       const t = forward ? bulges[k] : -bulges[k];
       let tx: number;
@@ -184,11 +199,11 @@ export function checkEquilibrium(map: CubicMap, areas: Float64Array, result: Equ
         ty = t > 0 ? -rx : rx;
       }
       const norm = Math.hypot(tx, ty);
-      sx += tx / norm;
-      sy += ty / norm;
+      sx += (s * tx) / norm;
+      sy += (s * ty) / norm;
       angle[i] = Math.atan2(ty, tx);
     }
-    tangentResidual = Math.max(tangentResidual, Math.hypot(sx, sy));
+    tangentResidual = Math.max(tangentResidual, Math.hypot(sx, sy) / most);
     const d1 = turn(angle[1] - angle[0]);
     const d2 = turn(angle[2] - angle[0]);
     if (!(d1 > 0 && d1 < d2 && d2 < 2 * Math.PI)) misorderedJunctions++;

@@ -131,7 +131,8 @@ export function findEquilibria(
       tried++;
     }
   }
-  if (unstable && map.junctionCount > 0) findSaddles(map, areas, newton, starts, seed, search);
+  // (no saddle where a junction's tensions cannot balance: relax() said so from the tensions alone)
+  if (unstable && map.junctionCount > 0 && first.status !== 'junction-unbalanced') findSaddles(map, areas, newton, starts, seed, search);
   return search.result(map, first, tried);
 }
 
@@ -181,7 +182,7 @@ function nearlyEqual(areas: Float64Array): boolean {
 function findSaddles(map: CubicMap, areas: Float64Array, newton: NewtonOptions, starts: number, seed: number, search: Search): void {
   const opt = resolveOptions(newton);
   const tryRoot = (start: DrawingStart, path: number): void => {
-    const state = drawingState(map, areas, start);
+    const state = drawingState(map, areas, start, opt.tensions);
     if (state === null) return;
     const { problem, ws } = state;
     let iterations = 0;

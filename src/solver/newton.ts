@@ -23,14 +23,14 @@ import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
 import { descend } from './descent.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
-import { type ClusterProblem, problemOf } from './problem.ts';
+import { type ClusterProblem, problemOf, withTensions } from './problem.ts';
 import { curvaturePressuresInto } from './pressures.ts';
 import { perimeterInto } from './wall-terms.ts';
 import type { Equilibrium } from './result.ts';
 import { shrinkSmallCellsInto } from './small-cells.ts';
 import { centreLensInto, lensHostOf } from './family.ts';
 import { stabilityOf } from './stability.ts';
-import { OK, type Verdict, collapseOf, ordersHold, relativeLengthOf, shortestWallOf } from './verdict.ts';
+import { OK, type Verdict, collapseOf, ordersHold, relativeLengthOf, shortestWallOf, unbalancedJunctionOf } from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
 import { mulberry32 } from '../random.ts';
 
@@ -181,13 +181,16 @@ function shrinkSmallCells(problem: ClusterProblem, ws: Workspace): void {
 }
 
 // The answer for the circle (one cell): perimeter 2 sqrt(pi A), pressure 1/R (isoperimetric inequality).
-function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
+// With a tension s on its one wall (tensions of length 1): energy s 2 pi R, pressure s/R (Laplace-Young).
+function circleAnswer(map: CubicMap, areas: Float64Array, tensions: Float64Array | null): Equilibrium {
   const area = areas[0];
   const radius = Math.sqrt(area / Math.PI);
+  const s = tensions === null ? 1 : tensions[0];
   const result: Equilibrium = {
     status: 'ok',
     perimeter: 2 * Math.PI * radius,
-    pressures: Float64Array.of(1 / radius),
+    energy: s * (2 * Math.PI * radius),
+    pressures: Float64Array.of(s / radius),
     coords: new Float64Array(0),
     bulges: new Float64Array(0),
     curvatures: new Float64Array(0),
@@ -199,16 +202,23 @@ function circleAnswer(map: CubicMap, areas: Float64Array): Equilibrium {
     zeroModes: 0,
     collapsingWall: null,
     collapsingCell: null,
+    unbalancedJunction: null,
+    junctionTensions: null,
   };
-  result.certificate = checkEquilibrium(map, areas, result);
+  result.certificate = checkEquilibrium(map, areas, result, tensions);
   return result;
 }
 
-// Check the map and the areas at the public boundary.
-function checkInput(map: CubicMap, areas: Float64Array): void {
+// Check the map, the areas and the tensions' count at the public boundary.
+function checkInput(map: CubicMap, areas: Float64Array, opt: ResolvedNewtonOptions): void {
   const cells = map.faceCount - 1;
   if (areas.length !== cells) {
     throw new UsageError(`Got ${areas.length} areas when expected ${cells}, one per cell.`);
+  }
+  // (the circle has one wall, though its map has no darts)
+  const walls = map.junctionCount === 0 ? 1 : map.twins.length / 2;
+  if (opt.tensions !== null && opt.tensions.length !== walls) {
+    throw new UsageError(`Got ${opt.tensions.length} tensions when expected ${walls}, one per wall.`);
   }
   for (let i = 0; i < cells; i++) {
     if (!(areas[i] > 0) || !Number.isFinite(areas[i])) {
@@ -235,13 +245,16 @@ function normaliseTargets(problem: ClusterProblem, ws: Workspace, areas: Float64
  */
 export function relax(map: CubicMap, areas: Float64Array, options?: NewtonOptions): Equilibrium {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
-  if (map.junctionCount === 0) return circleAnswer(map, areas);
-  const problem = problemOf(map);
+  checkInput(map, areas, opt);
+  if (map.junctionCount === 0) return circleAnswer(map, areas, opt.tensions);
+  const problem = withTensions(problemOf(map), opt.tensions);
   const { cells } = problem;
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   const first = drawStart(map, problem, ws, 'auto');
+  // Can every junction balance its three tensions? If not, no relaxation can end: say so at once.
+  const unbalanced = unbalancedJunctionOf(problem);
+  if (unbalanced >= 0) return unbalancedAnswer(map, problem, ws, areas, unit, opt, unbalanced);
   shrinkSmallCells(problem, ws);
   // how far the start's areas are from the targets, and the targets from each other (largest factors)
   perimeterInto(problem, ws.z, ws.cache, ws.areas);
@@ -306,13 +319,14 @@ const PERTURB_TRIES = 4;
 /**
  * Write the first drawing `start` into the workspace of `map`'s problem, targets normalised (as relax
  * does); returns the problem, the workspace and the unit of length, or null when that drawing cannot be
- * made (the construction path fails, or every perturbation leaves an invalid drawing).
+ * made (the construction path fails, or every perturbation leaves an invalid drawing). With wall
+ * `tensions` (options.tensions, checked) the problem weighs its walls by them.
  * Assumes checked input and at least one junction.
  */
 export function drawingState(
-  map: CubicMap, areas: Float64Array, start: DrawingStart,
+  map: CubicMap, areas: Float64Array, start: DrawingStart, tensions: Float64Array | null = null,
 ): { problem: ClusterProblem; ws: Workspace; unit: number } | null {
-  const problem = problemOf(map);
+  const problem = withTensions(problemOf(map), tensions);
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   if (typeof start.drawing === 'object') {
@@ -370,9 +384,11 @@ const BULGE_EDGE = Math.PI - 0.1;
  */
 export function relaxFromDrawing(map: CubicMap, areas: Float64Array, start: DrawingStart, options?: NewtonOptions): Equilibrium | null {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
-  if (map.junctionCount === 0) return circleAnswer(map, areas);
-  const state = drawingState(map, areas, start);
+  checkInput(map, areas, opt);
+  if (map.junctionCount === 0) return circleAnswer(map, areas, opt.tensions);
+  // (a junction whose tensions cannot balance is relax()'s verdict: no other drawing changes it)
+  if (unbalancedJunctionOf(withTensions(problemOf(map), opt.tensions)) >= 0) return null;
+  const state = drawingState(map, areas, start, opt.tensions);
   if (state === null) return null;
   const { problem, ws, unit } = state;
   return answerOf(map, problem, ws, areas, unit, opt, settle(map, problem, ws, opt, false), 0);
@@ -387,8 +403,8 @@ export function relaxFromDrawing(map: CubicMap, areas: Float64Array, start: Draw
  */
 export function answerAtState(map: CubicMap, areas: Float64Array, z: Float64Array, iterations: number, options?: NewtonOptions): Equilibrium {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
-  const problem = problemOf(map);
+  checkInput(map, areas, opt);
+  const problem = withTensions(problemOf(map), opt.tensions);
   const ws = workspaceFor(problem);
   const unit = normaliseTargets(problem, ws, areas);
   ws.z.set(z);
@@ -466,9 +482,10 @@ export function relaxFrom(
   map: CubicMap, areas: Float64Array, start: EquilibriumStart, options?: NewtonOptions,
 ): Equilibrium {
   const opt = resolveOptions(options);
-  checkInput(map, areas);
-  if (map.junctionCount === 0) return circleAnswer(map, areas);
-  const problem = problemOf(map);
+  checkInput(map, areas, opt);
+  if (map.junctionCount === 0) return circleAnswer(map, areas, opt.tensions);
+  const problem = withTensions(problemOf(map), opt.tensions);
+  if (unbalancedJunctionOf(problem) >= 0) return relax(map, areas, options);
   const { junctions, walls, cells } = problem;
   if (start.coords.length !== 2 * junctions || start.bulges.length !== walls || start.pressures.length !== cells) {
     throw new UsageError(
@@ -505,11 +522,25 @@ function loadStart(problem: ClusterProblem, ws: Workspace, start: EquilibriumSta
 
 const FACTORS = new Float64Array(BULGE_FACTORS);
 
+// The answer for a junction whose tensions cannot balance: the first drawing in ws.z, named.
+function unbalancedAnswer(
+  map: CubicMap, problem: ClusterProblem, ws: Workspace, areas: Float64Array, unit: number,
+  opt: ResolvedNewtonOptions, junction: number,
+): Equilibrium {
+  const answer = answerOf(map, problem, ws, areas, unit, opt, { verdict: NO_CONVERGENCE, iterations: 0 }, 0);
+  const tensions = problem.tensions as Float64Array;
+  const { wallOf } = problem;
+  answer.status = 'junction-unbalanced';
+  answer.unbalancedJunction = junction;
+  answer.junctionTensions = [tensions[wallOf[3 * junction]], tensions[wallOf[3 * junction + 1]], tensions[wallOf[3 * junction + 2]]];
+  return answer;
+}
+
 function answerOf(
   map: CubicMap, problem: ClusterProblem, ws: Workspace, areas: Float64Array, unit: number,
   opt: ResolvedNewtonOptions, attempt: Attempt, restarts: number,
 ): Equilibrium {
-  const { junctions, walls, cells, starts, ends } = problem;
+  const { junctions, walls, cells, starts, ends, tensions } = problem;
   const z = ws.z;
   const t0 = 2 * junctions;
   const p0 = t0 + walls;
@@ -527,12 +558,15 @@ function answerOf(
   if (attempt.verdict.status === 'ok') curvaturePressuresInto(problem, z, ws.targets, z.subarray(p0, p0 + cells), ws.normal, ws.pivots, ws.row, ws.lambda);
   for (let f = 0; f < cells; f++) pressures[f] = z[p0 + f] / unit;
   let perimeter = 0;
+  let energy = 0;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
     const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
     bulgeFactorsInto(z[t0 + k], FACTORS);
-    perimeter += c * FACTORS[G] * unit;
+    const length = c * FACTORS[G] * unit;
+    perimeter += length;
+    if (tensions !== null) energy += tensions[k] * length;
     curvatures[k] = c > 0 ? (2 * Math.sin(z[t0 + k])) / (c * unit) : 0;
   }
   perimeterInto(problem, z, ws.cache, achieved);
@@ -541,6 +575,7 @@ function answerOf(
   const answer: Equilibrium = {
     status: verdict.status,
     perimeter,
+    energy: tensions === null ? perimeter : energy,
     pressures,
     coords,
     bulges,
@@ -548,11 +583,13 @@ function answerOf(
     areas: achieved,
     iterations: attempt.iterations,
     restarts,
-    certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }),
+    certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }, tensions),
     index: null,
     zeroModes: null,
     collapsingWall: verdict.wall,
     collapsingCell: verdict.cell,
+    unbalancedJunction: null,
+    junctionTensions: null,
   };
   if (answer.status === 'ok') {
     const c = answer.certificate;
@@ -574,6 +611,7 @@ function answerOf(
   }
   // never NaN: a non-finite number anywhere means the state is unusable
   if (!Number.isFinite(answer.perimeter)) answer.perimeter = 0;
+  if (!Number.isFinite(answer.energy)) answer.energy = 0;
   for (const arr of [coords, bulges, pressures, curvatures, achieved]) {
     for (let i = 0; i < arr.length; i++) if (!Number.isFinite(arr[i])) arr[i] = 0;
   }

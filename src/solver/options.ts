@@ -45,10 +45,17 @@ export interface NewtonOptions {
    * @default 0.25
    */
   maxMoveStep?: number;
+  /**
+   * Tension of each wall, by map.wallIndex() (walls of different tension, design.md §8): the energy
+   * minimised is the sum of tension times length, and the pressures are its multipliers. Unset (or all
+   * 1) is the soap film, energy = perimeter. A cluster of one cell has one wall, its circle.
+   * @default every wall 1
+   */
+  tensions?: Float64Array | null;
 }
 
-/** NewtonOptions with every field present. */
-export type ResolvedNewtonOptions = Required<NewtonOptions>;
+/** NewtonOptions with every field present (tensions null for all 1). */
+export type ResolvedNewtonOptions = Required<Omit<NewtonOptions, 'tensions'>> & { tensions: Float64Array | null };
 
 const DEFAULTS: ResolvedNewtonOptions = {
   maxIterations: 100,
@@ -58,6 +65,7 @@ const DEFAULTS: ResolvedNewtonOptions = {
   zeroTolerance: 1e-8,
   maxBulgeStep: 0.5,
   maxMoveStep: 0.25,
+  tensions: null,
 };
 
 /**
@@ -66,7 +74,18 @@ const DEFAULTS: ResolvedNewtonOptions = {
  */
 export function resolveOptions(options: NewtonOptions = {}): ResolvedNewtonOptions {
   const out = { ...DEFAULTS };
+  const tensions = options.tensions;
+  if (tensions !== undefined && tensions !== null) {
+    if (!(tensions instanceof Float64Array)) throw new UsageError(`Option tensions is ${String(tensions)} when expected a Float64Array of wall tensions.`);
+    for (let k = 0; k < tensions.length; k++) {
+      if (!(tensions[k] > 0) || !Number.isFinite(tensions[k])) {
+        throw new UsageError(`Tension of wall ${k} is ${tensions[k]} when expected a positive finite number.`);
+      }
+    }
+    out.tensions = tensions;
+  }
   for (const key of Object.keys(DEFAULTS) as (keyof NewtonOptions)[]) {
+    if (key === 'tensions') continue;
     const value = options[key];
     if (value === undefined) continue;
     const integer = key === 'maxIterations';

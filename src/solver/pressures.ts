@@ -1,8 +1,8 @@
 // solver stage: the pressures that best explain the walls' curvatures (the Laplace-Young law in the
 // least-squares sense), the pressures of an answer.
 //
-// At an equilibrium every wall's curvature 2 sin t / c equals the pressure jump p_r - p_l across it
-// (design.md §5), so the pressures can be read off the geometry. The descent's own estimates come from
+// At an equilibrium every wall's tension times its curvature 2 sin t / c equals the pressure jump
+// p_r - p_l across it (design.md §5 and §8), so the pressures can be read off the geometry. The descent's own estimates come from
 // the gradient of the Lagrangian, whose rounding floor lies far above the curvatures' when a wall is
 // near a full circle (the outer wall of a large cell beside a tiny one: descent.ts); read from the
 // curvatures, the pressures are as good as the geometry. Each wall's equation is weighted by
@@ -24,7 +24,7 @@ export function curvaturePressuresInto(
   problem: ClusterProblem, z: Float64Array, targets: Float64Array, pressures: Float64Array, normal: Float64Array, pivots: Float64Array,
   row: Float64Array, rhs: Float64Array,
 ): boolean {
-  const { cells, junctions, walls, starts, ends, lefts, rights } = problem;
+  const { cells, junctions, walls, starts, ends, lefts, rights, tensions } = problem;
   const t0 = 2 * junctions;
   normal.fill(0, 0, cells * cells);
   rhs.fill(0, 0, cells);
@@ -32,12 +32,13 @@ export function curvaturePressuresInto(
     const a = 2 * starts[k];
     const b = 2 * ends[k];
     const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
-    const kappa = (2 * Math.sin(z[t0 + k])) / c;
-    // kappa = p_r - p_l
+    // s kappa = p_r - p_l (s the wall's tension)
+    const s = tensions === null ? 1 : tensions[k];
+    const kappa = (s * (2 * Math.sin(z[t0 + k]))) / c;
     const l = lefts[k];
     const r = rights[k];
     const local = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);
-    const w = 1 / (Math.abs(kappa) + 1 / Math.sqrt(local)) ** 2;
+    const w = 1 / (Math.abs(kappa) + s / Math.sqrt(local)) ** 2;
     if (r >= 0) {
       normal[r * cells + r] += w;
       rhs[r] += w * kappa;

@@ -36,6 +36,11 @@ export interface ClusterProblem {
   cellVarStarts: Int32Array;
   /** Unknown indices per cell, see cellVarStarts (3 per side: a 2-connected cell meets each junction once). */
   cellVars: Int32Array;
+  /**
+   * Tension of each wall (its weight in the energy sum s_k L_k), or null when every wall has tension 1
+   * (the soap-film case: energy = perimeter, and no pass multiplies by anything).
+   */
+  tensions: Float64Array | null;
 }
 
 const PROBLEMS = new WeakMap<CubicMap, ClusterProblem>();
@@ -82,7 +87,20 @@ export function problemOf(map: CubicMap): ClusterProblem {
   cellVarStarts[cells] = m;
   const problem = {
     cells, junctions, walls, starts, ends, lefts, rights, wallOf, twins, size, order: size + 3, cellVarStarts, cellVars,
+    tensions: null,
   };
   PROBLEMS.set(map, problem);
   return problem;
+}
+
+/**
+ * `problem` with wall tensions `tensions` (one per wall, by map.wallIndex()): the same object when
+ * tensions is null or every entry is 1 (so unit tension costs nothing), otherwise a copy sharing the
+ * topology arrays. Entries are taken as they are (checked by resolveOptions).
+ */
+export function withTensions(problem: ClusterProblem, tensions: Float64Array | null): ClusterProblem {
+  if (tensions === null) return problem;
+  let unit = true;
+  for (let k = 0; k < problem.walls; k++) if (tensions[k] !== 1) unit = false;
+  return unit ? problem : { ...problem, tensions };
 }

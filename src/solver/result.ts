@@ -19,8 +19,13 @@ import type { Certificate } from './certificate.ts';
  *   drawings ended without a verdict (or the certified answer's inertia counted fewer negative
  *   eigenvalues than constraints, which is refused). It says nothing about whether an equilibrium
  *   exists, and the sweep never takes it for an existence boundary.
+ * - 'junction-unbalanced': the tensions of the three walls at a junction violate the triangle
+ *   inequality (one at least the sum of the other two), so no junction of those walls can balance (the
+ *   Neumann triangle does not exist; design.md §8): told before relaxing, from the tensions alone.
+ *   `unbalancedJunction` and `junctionTensions` name it; the geometry is the first drawing.
  */
-export type EquilibriumStatus = 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'fold' | 'no-convergence';
+export type EquilibriumStatus =
+  | 'ok' | 'wall-collapse' | 'cell-collapse' | 'walls-cross' | 'fold' | 'no-convergence' | 'junction-unbalanced';
 
 /**
  * An answer of relax()/relaxFrom(). Every number is finite. Geometry is in the caller's units; for a
@@ -33,6 +38,11 @@ export interface Equilibrium {
   status: EquilibriumStatus;
   /** Sum of all wall lengths (the circle: 2 sqrt(pi A)). */
   perimeter: number;
+  /**
+   * Sum of tension times length over the walls, the energy minimised (options.tensions); equal to
+   * `perimeter` when every tension is 1.
+   */
+  energy: number;
   /** Pressure of cell i + 1 at index i (outside pressure 0); the Lagrange multipliers of the areas. */
   pressures: Float64Array;
   /** Junction coordinates, coords[2v], coords[2v + 1]; empty for the circle. */
@@ -64,4 +74,8 @@ export interface Equilibrium {
   collapsingWall: number | null;
   /** For 'cell-collapse', the collapsing cell's number (1..n); otherwise null. */
   collapsingCell: number | null;
+  /** For 'junction-unbalanced', the junction v (darts 3v, 3v + 1, 3v + 2); otherwise null. */
+  unbalancedJunction: number | null;
+  /** For 'junction-unbalanced', the tensions of its three walls in dart order; otherwise null. */
+  junctionTensions: [number, number, number] | null;
 }

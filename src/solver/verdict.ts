@@ -174,3 +174,20 @@ export function collapseOf(
   if (cell > 0) return { status: 'cell-collapse', wall: null, cell };
   return { status: 'wall-collapse', wall: shortestWallOf(problem, cache, targets), cell: null };
 }
+
+/**
+ * The first junction whose three walls' tensions violate the triangle inequality (one at least the sum
+ * of the other two: no Neumann triangle, so no balanced junction; design.md §8), or -1 when every
+ * junction can balance or every tension is 1.
+ */
+export function unbalancedJunctionOf(problem: ClusterProblem): number {
+  const { junctions, wallOf, tensions } = problem;
+  if (tensions === null) return -1;
+  for (let v = 0; v < junctions; v++) {
+    const a = tensions[wallOf[3 * v]];
+    const b = tensions[wallOf[3 * v + 1]];
+    const c = tensions[wallOf[3 * v + 2]];
+    if (a >= b + c || b >= a + c || c >= a + b) return v;
+  }
+  return -1;
+}

@@ -21,9 +21,12 @@
 // and the area gradient dQ/da = (b_y/2 + 2 h d_x, -b_x/2 + 2 h d_y), dQ/db = (-a_y/2 - 2 h d_x,
 // a_x/2 - 2 h d_y), dQ/dt = -c^2 h'.
 //
-// NOTE: a wall's weight (a tension s other than 1, s L in the energy) is one factor on the length
-// terms of the record (W_G .. W_G2, W_LX .. W_LTT), which perimeterInto writes: every length term any
-// pass uses is read from them, so that is the one place it enters.
+// A wall's tension s (problem.tensions, walls of different tension: design.md §8) weighs its length in
+// the energy E = sum_k s_k L_k, so the Lagrangian's wall part is phi = s L - D Q: s is one factor on
+// the length terms of the record (W_LX .. W_LTT), which perimeterInto writes, and every length term any
+// pass uses is read from them, so that is the one place it enters. The arc's own factors (W_G .. W_G2)
+// stay unweighted: a wall's length is c g whatever its tension. At the equilibrium this gives the
+// Neumann triangle at each junction (sum s_i u_i = 0) and s kappa = D on each wall.
 
 import * as arc from '../arcs/arc.ts';
 import type { ClusterProblem } from './problem.ts';
@@ -46,23 +49,23 @@ export const W_H = 6;
 export const W_H1 = 7;
 /** Offset of h''(t). */
 export const W_H2 = 8;
-/** Offset of the length's gradient dL/db_x = -dL/da_x = g d_x / c. */
+/** Offset of the weighted length's gradient d(sL)/db_x = -d(sL)/da_x = s g d_x / c (s the wall's tension). */
 export const W_LX = 9;
-/** Offset of dL/db_y. */
+/** Offset of d(sL)/db_y. */
 export const W_LY = 10;
-/** Offset of dL/dt = c g'. */
+/** Offset of d(sL)/dt = s c g'. */
 export const W_LT = 11;
-/** Offset of the length's Hessian in the chord, d2L/dd_x^2 = g (1 - u_x^2) / c. */
+/** Offset of the weighted length's Hessian in the chord, d2(sL)/dd_x^2 = s g (1 - u_x^2) / c. */
 export const W_LXX = 12;
-/** Offset of d2L/dd_x dd_y = -g u_x u_y / c. */
+/** Offset of d2(sL)/dd_x dd_y = -s g u_x u_y / c. */
 export const W_LXY = 13;
-/** Offset of d2L/dd_y^2. */
+/** Offset of d2(sL)/dd_y^2. */
 export const W_LYY = 14;
-/** Offset of d2L/dd_x dt = g' u_x. */
+/** Offset of d2(sL)/dd_x dt = s g' u_x. */
 export const W_LXT = 15;
-/** Offset of d2L/dd_y dt. */
+/** Offset of d2(sL)/dd_y dt. */
 export const W_LYT = 16;
-/** Offset of d2L/dt^2 = c g''. */
+/** Offset of d2(sL)/dt^2 = s c g''. */
 export const W_LTT = 17;
 /** Offset of the area's gradient (an area block, offsets Q_AX .. Q_T, as areaGradientInto writes it). */
 export const W_Q = 18;
@@ -111,10 +114,11 @@ const FACTORS = new Float64Array(arc.BULGE_FACTORS);
 /**
  * The one pass per iterate: fills `cache` (WALL_STRIDE numbers per wall) at the geometry of z and the
  * n cell areas into `areas` (signed polygon area of each cell's junctions plus the signed segment areas
- * of its walls); returns the perimeter (normalised units). NaN or Infinity when the state is not finite.
+ * of its walls); returns the energy sum s_k L_k (normalised units), the perimeter when every tension is
+ * 1. NaN or Infinity when the state is not finite.
  */
 export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: Float64Array, areas: Float64Array): number {
-  const { walls, starts, ends, lefts, rights, cells, junctions } = problem;
+  const { walls, starts, ends, lefts, rights, cells, junctions, tensions } = problem;
   const t0 = 2 * junctions;
   const f = FACTORS;
   areas.fill(0, 0, cells);
@@ -144,21 +148,23 @@ export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: F
     cache[w + W_H] = h;
     cache[w + W_H1] = f[H1];
     cache[w + W_H2] = f[H2];
-    // the length's derivatives (Is the chord zero? Its direction is undefined: taken as zero.)
+    // the weighted length's derivatives (Is the chord zero? Its direction is undefined: taken as zero.)
+    const s = tensions === null ? 1 : tensions[k];
     const ux = c > 0 ? dx / c : 0;
     const uy = c > 0 ? dy / c : 0;
-    const gc = c > 0 ? g / c : 0;
+    const gc = c > 0 ? (s * g) / c : 0;
+    const sg1 = s * g1;
     cache[w + W_LX] = gc * dx;
     cache[w + W_LY] = gc * dy;
-    cache[w + W_LT] = c * g1;
+    cache[w + W_LT] = c * sg1;
     cache[w + W_LXX] = gc * (1 - ux * ux);
     cache[w + W_LXY] = -gc * ux * uy;
     cache[w + W_LYY] = gc * (1 - uy * uy);
-    cache[w + W_LXT] = g1 * ux;
-    cache[w + W_LYT] = g1 * uy;
-    cache[w + W_LTT] = c * f[G2];
+    cache[w + W_LXT] = sg1 * ux;
+    cache[w + W_LYT] = sg1 * uy;
+    cache[w + W_LTT] = s * c * f[G2];
     areaGradientInto(cache, k, z, a, b, cache, w + W_Q);
-    length += c * g;
+    length += s * (c * g);
     const q = 0.5 * (ax * by - ay * bx) - c2 * h;
     const l = lefts[k];
     const r = rights[k];

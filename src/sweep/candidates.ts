@@ -28,6 +28,8 @@ export interface SweepCandidate {
   readonly slots: readonly number[];
   /** The formula of each cell, as typed. */
   readonly cellFormulas: readonly string[];
+  /** The type label of each cell, when the sweep is typed. */
+  readonly cellTypes?: readonly string[];
   /** Tie-break key after perimeter and code: the slots joined by commas. */
   readonly assignmentKey: string;
 }
@@ -44,25 +46,32 @@ export interface CandidateSet {
 }
 
 /**
- * The formula classes: slots with the same parsed formula (AreaFormula.key) share a class, numbered
- * by first appearance. `values` holds the class's first slot index (areas come from the formulas).
+ * The formula classes: slots with the same parsed formula (AreaFormula.key), and the same type when
+ * `types` (one per slot) is given, share a class, numbered by first appearance. `values` holds the
+ * class's first slot index (areas come from the formulas).
  */
-export function formulaClasses(formulas: readonly AreaFormula[]): AreaClasses {
+export function formulaClasses(formulas: readonly AreaFormula[], types?: readonly number[]): AreaClasses {
+  const keyOf = (i: number): string => (types === undefined ? formulas[i].key : `${formulas[i].key}|${types[i]}`);
   const keys: string[] = [];
-  const classOf = formulas.map((f) => {
-    let k = keys.indexOf(f.key);
-    if (k < 0) k = keys.push(f.key) - 1;
+  const classOf = formulas.map((_, i) => {
+    let k = keys.indexOf(keyOf(i));
+    if (k < 0) k = keys.push(keyOf(i)) - 1;
     return k;
   });
-  const values = keys.map((key) => formulas.findIndex((f) => f.key === key));
+  const values = keys.map((key) => formulas.findIndex((_, i) => keyOf(i) === key));
   const multiplicity = keys.map((_, k) => classOf.filter((c) => c === k).length);
   return { values, multiplicity, classOf };
 }
 
-/** Every candidate of a sweep over `formulas` (one per cell), arrangements in enumeration order. */
-export function sweepCandidates(formulas: readonly AreaFormula[], filter: ArrangementFilter = {}): CandidateSet {
+/**
+ * Every candidate of a sweep over `formulas` (one per cell; `types`: one type per formula, when typed),
+ * arrangements in enumeration order.
+ */
+export function sweepCandidates(
+  formulas: readonly AreaFormula[], filter: ArrangementFilter = {}, typing?: { types: readonly number[]; labels: readonly string[] },
+): CandidateSet {
   const n = formulas.length;
-  const classes = formulaClasses(formulas);
+  const classes = formulaClasses(formulas, typing?.types);
   const candidates: SweepCandidate[] = [];
   const ids = new Map<string, string>();
   let enumerated = 0;
@@ -84,6 +93,7 @@ export function sweepCandidates(formulas: readonly AreaFormula[], filter: Arrang
         sides: summary.sides,
         slots,
         cellFormulas: slots.map((k) => formulas[k].source),
+        ...(typing === undefined ? {} : { cellTypes: slots.map((k) => typing.labels[typing.types[k]]) }),
         assignmentKey: slots.join(','),
       });
     }
@@ -98,9 +108,10 @@ export function candidateAreasInto(candidate: SweepCandidate, slotValues: ArrayL
   return out;
 }
 
-/** Readable "which formula sits in which cell", e.g. "1:1 2:1 3:1 4:t". */
+/** Readable "which formula sits in which cell", e.g. "1:1 2:1 3:1 4:t" (typed: "1:1(a) 2:1(a) 3:2(b) 4:2(b)"). */
 export function cellFormulasText(candidate: SweepCandidate): string {
-  return candidate.cellFormulas.map((f, i) => `${i + 1}:${f.replace(/\s+/g, '')}`).join(' ');
+  const types = candidate.cellTypes;
+  return candidate.cellFormulas.map((f, i) => `${i + 1}:${f.replace(/\s+/g, '')}${types === undefined ? '' : `(${types[i]})`}`).join(' ');
 }
 
 /**

@@ -159,12 +159,12 @@ export function checkSampleCount(domain: SweepDomain): void {
 /**
  * Check that the formulas use the parameters the domain varies: every parameter of a path or a grid,
  * and at least two of a triangle's three shares (the third is then fixed by the total). A parameter no
- * formula uses would sweep nothing.
+ * formula uses would sweep nothing. `tensions`: formulas of wall tensions, which use parameters too.
  * @throws UsageError naming the parameter and the formulas.
  */
-export function checkParametersUsed(formulas: readonly AreaFormula[], domain: SweepDomain): void {
+export function checkParametersUsed(formulas: readonly AreaFormula[], domain: SweepDomain, tensions: readonly AreaFormula[] = []): void {
   const names = parameterNames(domain);
-  const used = names.filter((name) => formulas.some((f) => f.uses.includes(name)));
+  const used = names.filter((name) => formulas.some((f) => f.uses.includes(name)) || tensions.some((f) => f.uses.includes(name)));
   const areas = formulas.map((f) => f.source).join(', ');
   if (domain.kind === 'triangle') {
     if (used.length < 2) {
@@ -176,7 +176,8 @@ export function checkParametersUsed(formulas: readonly AreaFormula[], domain: Sw
   }
   const unused = names.find((name) => !used.includes(name));
   if (unused !== undefined) {
-    throw new UsageError(`Parameter ${unused} is used by none of the areas "${areas}" when expected every parameter of --vary in a formula.`);
+    const where = tensions.length > 0 ? ` nor the tensions "${tensions.map((f) => f.source).join(', ')}"` : '';
+    throw new UsageError(`Parameter ${unused} is used by none of the areas "${areas}"${where} when expected every parameter of --vary in a formula.`);
   }
 }
 

@@ -25,13 +25,22 @@ function domainJson(domain: SweepDomain): Record<string, unknown> {
   return { kind: 'triangle', shares: [...domain.shares], total: domain.total, divisions: domain.divisions };
 }
 
+// A typed sweep's types (by area) and tensions ("a:b" -> formula), and that its perimeters are energies.
+function typingJson(sweep: PathSweep | RegionSweep): Record<string, unknown> {
+  const t = sweep.typing;
+  if (t === undefined) return {};
+  const tensions: Record<string, string> = {};
+  for (const { i, j, formula } of t.tensions) tensions[`${t.labels[i]}:${t.labels[j]}`] = formula.source;
+  return { types: t.types.map((k) => t.labels[k]), tensions, ranking: 'energy' };
+}
+
 function head(sweep: PathSweep | RegionSweep, extra: Record<string, unknown>): Record<string, unknown> {
   return {
     format: SWEEP_FORMAT,
     version: SWEEP_VERSION,
-    query: { areas: sweep.formulas.map((f) => f.source), domain: domainJson(sweep.domain), ...extra },
+    query: { areas: sweep.formulas.map((f) => f.source), domain: domainJson(sweep.domain), ...typingJson(sweep), ...extra },
     counts: sweep.counts,
-    candidates: sweep.set.candidates.map((c) => ({ index: c.index, id: c.id, code: c.code, sides: [...c.sides], cellAreas: [...c.cellFormulas] })),
+    candidates: sweep.set.candidates.map((c) => ({ index: c.index, id: c.id, code: c.code, sides: [...c.sides], cellAreas: [...c.cellFormulas], ...(c.cellTypes === undefined ? {} : { cellTypes: [...c.cellTypes] }) })),
   };
 }
 

@@ -32,7 +32,7 @@ export function rankSamples(
     const placed: Placed[] = [];
     for (const cand of candidates) {
       const s = states[cand.index][k];
-      if (s !== null) placed.push({ candidate: cand.index, perimeter: s.equilibrium.perimeter });
+      if (s !== null) placed.push({ candidate: cand.index, perimeter: s.equilibrium.energy });
     }
     ranked.push(rankPlaced(placed, candidates, limit));
   }

@@ -29,7 +29,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
   if (!(Number.isInteger(domain.samples) && domain.samples >= 2)) {
     throw new UsageError(`Path has ${domain.samples} samples when expected a whole number of at least 2.`);
   }
-  const { competitorCount, maxSkip, tolerance, newton, set, candidates, points, count, slotValues, counts, areasAt } =
+  const { competitorCount, maxSkip, tolerance, newton, set, candidates, points, count, slotValues, counts, areasAt, newtonAt } =
     prepareSweep(formulas, domain, options, 'path');
   const xs = points.values;
 
@@ -49,7 +49,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
       const areas = areasAt(c, k);
       // no own state: start from a sibling's (same arrangement, other assignment) at this sample, as a ranking does
       const start = prev ?? siblingState(c, k);
-      const step = trackStep(cand.cluster.map, areas, start, newton, counts, prev === null ? 'cold' : 'warm');
+      const step = trackStep(cand.cluster.map, areas, start, newtonAt(c, k), counts, prev === null ? 'cold' : 'warm');
       statuses[c][k] = step.equilibrium.status;
       if (step.ok) {
         states[c][k] = { areas, equilibrium: step.equilibrium };
@@ -91,7 +91,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
     for (let j = k - 1; j >= 0; j--) {
       if (states[c][j] !== null) return;
       const areas = areasAt(c, j);
-      const step = trackStep(candidates[c].cluster.map, areas, states[c][j + 1], newton, counts, 'warm');
+      const step = trackStep(candidates[c].cluster.map, areas, states[c][j + 1], newtonAt(c, j), counts, 'warm');
       statuses[c][j] = step.equilibrium.status;
       if (!step.ok) {
         return;
@@ -109,6 +109,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
 
   const ctx: PathContext = {
     formulas, parameter: domain.parameter.name, set, probeOptions: probeOptionsOf(newton), counts, tolerance,
+    typing: options.typing,
   };
   const pointAt = (k: number): PathPoint => {
     const known = new Map<number, KnownState>();
@@ -126,7 +127,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
     if (winners[k] < 0 || winners[k + 1] < 0) {
       const mid = 0.5 * (xs[k] + xs[k + 1]);
       const c = winners[k] < 0 ? winners[k + 1] : winners[k];
-      const P = (states[c][winners[k] < 0 ? k + 1 : k] as TrackedState).equilibrium.perimeter;
+      const P = (states[c][winners[k] < 0 ? k + 1 : k] as TrackedState).equilibrium.energy;
       transitions.push({ at: mid, bracket: [xs[k], xs[k + 1]], from: winners[k], to: winners[k + 1], kind: 'existence', perimeters: [P, P] });
       continue;
     }
@@ -170,6 +171,7 @@ export function sweepPath(formulas: readonly AreaFormula[], domain: PathDomain, 
     boundaries,
     intervals: intervalsOf(xs, winners, transitions),
     counts: { enumerated: set.enumerated, arrangements: set.arrangements, candidates: candidates.length, relaxations: counts },
+    ...(options.typing === undefined ? {} : { typing: options.typing }),
   };
 }
 

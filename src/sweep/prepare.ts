@@ -8,6 +8,7 @@ import { type CandidateSet, type SweepCandidate, candidateAreasInto, sweepCandid
 import { type SamplePoints, type SweepDomain, checkFormulasOnDomain, domainSamples, sampleScope, slotValuesInto } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
 import { type RelaxCounts, emptyCounts } from './track.ts';
+import { tensionTableAt, tensionsAt } from './tensions.ts';
 import type { SweepOptions } from './types.ts';
 
 /**
@@ -45,6 +46,8 @@ export interface PreparedSweep {
   counts: RelaxCounts;
   /** Candidate c's cell areas at sample k (a new array). */
   areasAt(c: number, k: number): Float64Array;
+  /** The relaxer's options for candidate c at sample k (its wall tensions there, when typed). */
+  newtonAt(c: number, k: number): NewtonOptions | undefined;
 }
 
 /**
@@ -65,17 +68,28 @@ export function prepareSweep(
   if (!(Number.isInteger(competitorCount) && competitorCount >= 1)) throw new UsageError(`Competitors is ${competitorCount} when expected a whole number of at least 1.`);
   if (!(Number.isInteger(maxSkip) && maxSkip >= 1)) throw new UsageError(`Largest skip is ${maxSkip} when expected a whole number of at least 1.`);
   if (!(tolerance > 0 && Number.isFinite(tolerance))) throw new UsageError(`Tolerance is ${tolerance} when expected a positive finite number.`);
-  const set = sweepCandidates(formulas, options.filter);
+  const { typing } = options;
+  if (typing !== undefined && typing.types.length !== formulas.length) {
+    throw new UsageError(`Got ${typing.types.length} types when expected ${formulas.length}, one per area.`);
+  }
+  const set = sweepCandidates(formulas, options.filter, typing);
   const { candidates } = set;
   const points = domainSamples(domain);
   const count = points.count;
+  // every tension is checked on every sample before any relaxing
+  if (typing !== undefined) for (let k = 0; k < count; k++) tensionTableAt(typing, sampleScope(points, k));
   const m = formulas.length;
   const slotValues = new Float64Array(count * m);
   for (let k = 0; k < count; k++) slotValuesInto(formulas, sampleScope(points, k), slotValues.subarray(k * m, (k + 1) * m));
   const areasAt = (c: number, k: number): Float64Array =>
     candidateAreasInto(candidates[c], slotValues.subarray(k * m, (k + 1) * m), new Float64Array(candidates[c].slots.length));
+  const newtonAt = (c: number, k: number): NewtonOptions | undefined => {
+    if (typing === undefined) return options.newton;
+    const tensions = tensionsAt(typing, candidates[c].cluster.map, candidates[c].slots, sampleScope(points, k));
+    return tensions === null ? options.newton : { ...options.newton, tensions };
+  };
   return {
     competitorCount, maxSkip, tolerance, newton: options.newton, set, candidates, points, count, slotValues,
-    counts: emptyCounts(), areasAt,
+    counts: emptyCounts(), areasAt, newtonAt,
   };
 }

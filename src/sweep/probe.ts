@@ -6,6 +6,7 @@ import { candidateAreasInto, type CandidateSet } from './candidates.ts';
 import { slotValuesInto } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
 import { type RelaxCounts, type TrackedState, perimeterSlope, trackStep } from './track.ts';
+import { type SweepTyping, tensionSlope, tensionsAt } from './tensions.ts';
 
 /**
  * Wall chord (relative to sqrt of the smaller neighbouring area) below which a probe counts a wall as
@@ -29,6 +30,8 @@ export interface PathContext {
   readonly probeOptions: NewtonOptions;
   readonly counts: RelaxCounts;
   readonly tolerance: number;
+  /** The cell types and tension formulas, when typed. */
+  readonly typing?: SweepTyping;
 }
 
 /** The probe options derived from the samples' relaxer options. */
@@ -52,14 +55,21 @@ export function areaSlopesAt(ctx: PathContext, c: number, p: number): Float64Arr
   return out;
 }
 
-/** dP/dp of a known state (sum of pressure times area slope). */
+/**
+ * dE/dp of a known state: sum of pressure times area slope, plus sum of tension slope times wall length
+ * when tensions depend on p (tensions.ts); dP/dp at unit tension.
+ */
 export function slopeAt(ctx: PathContext, c: number, known: KnownState): number {
-  return perimeterSlope(known.state.equilibrium, areaSlopesAt(ctx, c, known.p));
+  const eq = known.state.equilibrium;
+  const d = perimeterSlope(eq, areaSlopesAt(ctx, c, known.p));
+  if (ctx.typing === undefined) return d;
+  const cand = ctx.set.candidates[c];
+  return d + tensionSlope(ctx.typing, cand.cluster.map, cand.slots, eq, { [ctx.parameter]: known.p }, ctx.parameter);
 }
 
-/** The perimeter at q extrapolated to first order from a known state (exact to O((q - p)^2)). */
+/** The energy (perimeter at unit tension) at q extrapolated to first order from a known state (exact to O((q - p)^2)). */
 export function extrapolatedPerimeter(ctx: PathContext, c: number, known: KnownState, q: number): number {
-  return known.state.equilibrium.perimeter + slopeAt(ctx, c, known) * (q - known.p);
+  return known.state.equilibrium.energy + slopeAt(ctx, c, known) * (q - known.p);
 }
 
 /** The known state nearest to p, or null. */
@@ -85,7 +95,10 @@ export function probe(ctx: PathContext, c: number, p: number, list: KnownState[]
   const from = nearest(list, p);
   if (from === null) throw new Error(`Probe of candidate ${c} has no known state when expected at least one.`);
   const areas = areasAt(ctx, c, p);
-  const step = trackStep(ctx.set.candidates[c].cluster.map, areas, from.state, ctx.probeOptions, ctx.counts, 'probe');
+  const cand = ctx.set.candidates[c];
+  const tensions = ctx.typing === undefined ? null : tensionsAt(ctx.typing, cand.cluster.map, cand.slots, { [ctx.parameter]: p });
+  const options = tensions === null ? ctx.probeOptions : { ...ctx.probeOptions, tensions };
+  const step = trackStep(cand.cluster.map, areas, from.state, options, ctx.counts, 'probe');
   if (!step.continued) return { known: null, equilibrium: step.equilibrium };
   const known = { p, state: { areas, equilibrium: step.equilibrium } };
   list.push(known);

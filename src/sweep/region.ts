@@ -68,7 +68,7 @@ export function sampleNeighbours(domain: GridDomain | TriangleDomain): number[][
  */
 export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain | TriangleDomain, options: SweepOptions = {}): RegionSweep {
   const neighbours = sampleNeighbours(domain);
-  const { maxSkip, newton, set, candidates, points, count, slotValues, counts, areasAt } =
+  const { maxSkip, set, candidates, points, count, slotValues, counts, areasAt, newtonAt } =
     prepareSweep(formulas, domain, options, 'region');
 
   const states: (TrackedState | null)[][] = candidates.map(() => new Array<TrackedState | null>(count).fill(null));
@@ -88,7 +88,7 @@ export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain
       if (from === undefined && k < nextTry[c]) continue;
       const areas = areasAt(c, k);
       const start = from === undefined ? null : states[c][from];
-      const step = trackStep(cand.cluster.map, areas, start, newton, counts, start === null ? 'cold' : 'warm');
+      const step = trackStep(cand.cluster.map, areas, start, newtonAt(c, k), counts, start === null ? 'cold' : 'warm');
       if (record(c, k, areas, step.equilibrium)) {
         skip[c] = 1;
         if (start === null) carryBack(c, k);
@@ -108,7 +108,7 @@ export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain
       for (const y of neighbours[x]) {
         if (y >= k || states[c][y] !== null) continue;
         const areas = areasAt(c, y);
-        const step = trackStep(candidates[c].cluster.map, areas, states[c][x], newton, counts, 'warm');
+        const step = trackStep(candidates[c].cluster.map, areas, states[c][x], newtonAt(c, y), counts, 'warm');
         if (record(c, y, areas, step.equilibrium)) queue.push(y);
       }
     }
@@ -128,6 +128,7 @@ export function sweepRegion(formulas: readonly AreaFormula[], domain: GridDomain
     winnerStates: winners.map((w, k) => (w === null ? null : states[w][k])),
     regions: regionsOf(winners, neighbours, points.values, points.names.length),
     counts: { enumerated: set.enumerated, arrangements: set.arrangements, candidates: candidates.length, relaxations: counts },
+    ...(options.typing === undefined ? {} : { typing: options.typing }),
   };
 }
 

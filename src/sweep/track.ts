@@ -41,7 +41,7 @@ export interface TrackedState {
  */
 export function predictedPerimeter(start: TrackedState, pressuresTo: Float64Array, to: Float64Array): number {
   const { areas, equilibrium } = start;
-  let p = equilibrium.perimeter;
+  let p = equilibrium.energy;
   for (let i = 0; i < to.length; i++) p += 0.5 * (equilibrium.pressures[i] + pressuresTo[i]) * (to[i] - areas[i]);
   return p;
 }
@@ -58,7 +58,7 @@ export function sameBranch(start: TrackedState, answer: Equilibrium, to: Float64
   for (let k = 0; k < a.length; k++) move = Math.max(move, Math.abs(a[k] - b[k]));
   if (move < BRANCH_BULGE) return true;
   const predicted = predictedPerimeter(start, answer.pressures, to);
-  return Math.abs(answer.perimeter - predicted) <= BRANCH_PERIMETER * answer.perimeter;
+  return Math.abs(answer.energy - predicted) <= BRANCH_PERIMETER * answer.energy;
 }
 
 /** The outcome of one tracked relaxation. */

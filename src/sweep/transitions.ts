@@ -84,7 +84,7 @@ export function locateTransitions(
     }
     // Did every probe end without convergence? d is unknown there (NaN): the bracket is not narrowed.
     if (!settled) return { p, d: NaN, a: null, b: null };
-    if (a !== null && b !== null) return { p, d: a.state.equilibrium.perimeter - b.state.equilibrium.perimeter, a, b };
+    if (a !== null && b !== null) return { p, d: a.state.equilibrium.energy - b.state.equilibrium.energy, a, b };
     // only one exists: it wins; neither: the one below has ended (treated as the one above winning)
     return { p, d: a !== null && b === null ? -Infinity : Infinity, a, b };
   };
@@ -159,9 +159,9 @@ export function locateTransitions(
     const r = probe(ctx, c, at, list);
     if (r.known === null) continue;
     middle.set(c, r.known);
-    if (r.known.state.equilibrium.perimeter < thirdPerimeter) {
+    if (r.known.state.equilibrium.energy < thirdPerimeter) {
       third = c;
-      thirdPerimeter = r.known.state.equilibrium.perimeter;
+      thirdPerimeter = r.known.state.equilibrium.energy;
     }
   }
   if (third < 0) return [found];

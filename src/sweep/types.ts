@@ -6,6 +6,7 @@ import type { CandidateSet } from './candidates.ts';
 import type { GridDomain, PathDomain, TriangleDomain } from './domain.ts';
 import type { AreaFormula } from './formula.ts';
 import type { RelaxCounts, TrackedState } from './track.ts';
+import type { SweepTyping } from './tensions.ts';
 
 /** Options of sweepPath() and sweepRegion(). */
 export interface SweepOptions {
@@ -22,6 +23,11 @@ export interface SweepOptions {
   tolerance?: number;
   /** Options of the relaxer at the samples. */
   newton?: NewtonOptions;
+  /**
+   * Cell types of the area formulas and the tensions between them (formulas of the parameters); the
+   * ranking at each sample is then by energy. @default untyped, every tension 1
+   */
+  typing?: SweepTyping;
   /** Called with (samples done, samples planned). */
   onProgress?: (done: number, total: number) => void;
 }
@@ -30,6 +36,7 @@ export interface SweepOptions {
 export interface Placed {
   /** Candidate index (into candidates). */
   readonly candidate: number;
+  /** Its energy (sum of tension times length: the perimeter when every tension is 1). */
   readonly perimeter: number;
 }
 
@@ -120,6 +127,8 @@ export interface PathSweep {
   readonly boundaries: Boundary[];
   readonly intervals: Interval[];
   readonly counts: SweepCounts;
+  /** The cell types and tensions of the sweep, when typed (every `perimeter` is then an energy). */
+  readonly typing?: SweepTyping;
 }
 
 /** A connected set of grid samples with the same winner. */
@@ -147,4 +156,6 @@ export interface RegionSweep {
   readonly winnerStates: (TrackedState | null)[];
   readonly regions: Region[];
   readonly counts: SweepCounts;
+  /** The cell types and tensions of the sweep, when typed (every `perimeter` is then an energy). */
+  readonly typing?: SweepTyping;
 }

@@ -35,13 +35,13 @@ const SORT_LABELS: Record<(typeof SORT_KEYS)[number], string> = {
   perimeter: 'perimeter', gap: 'gap to the best', sides: 'side counts', index: 'stability index',
 };
 
-/** The controls of the view; their names are the page script's. */
-function controls(statuses: string[]): string {
+/** The controls of the view; their names are the page script's (a typed catalogue sorts by energy). */
+function controls(statuses: string[], typed: boolean): string {
   const option = (value: string, label: string): string => `<option value="${escapeXml(value)}">${escapeXml(label)}</option>`;
   const statusOptions = [option('all', 'every status'), option('ok', 'certified'), option('failures', 'every failure')]
     .concat(statuses.filter((s) => s !== 'ok').map((s) => option(s, s)));
   return `<form id="controls" role="search" aria-label="Sort and filter the entries">
-<label>Sort by <select name="sort">${SORT_KEYS.map((k) => option(k, SORT_LABELS[k])).join('')}</select></label>
+<label>Sort by <select name="sort">${SORT_KEYS.map((k) => option(k, typed && k === 'perimeter' ? 'energy' : SORT_LABELS[k])).join('')}</select></label>
 <label><input type="checkbox" name="desc"> descending</label>
 <label>Status <select name="status">${statusOptions.join('')}</select></label>
 <label><input type="checkbox" name="stable"> stable only</label>
@@ -64,7 +64,9 @@ export function renderViewPage(catalogue: Catalogue, script: string, source: str
   const { counts, query } = catalogue;
   const failures = Object.values(counts.failures).reduce((a, b) => a + b, 0);
   const palette = CELL_FILLS.map((c, i) => `--cell-${i + 1}:${c};`).join('');
-  const summary = `Areas ${query.areas.join(', ')}: ${counts.candidates} candidate${counts.candidates === 1 ? '' : 's'}` +
+  const typesText = query.types === undefined ? ''
+    : ` (types ${query.types.join(', ')}; tensions ${Object.entries(query.tensions ?? {}).map(([k, v]) => `${k} ${v}`).join(', ') || 'all 1'}, others 1; ranked by energy)`;
+  const summary = `Areas ${query.areas.join(', ')}${typesText}: ${counts.candidates} candidate${counts.candidates === 1 ? '' : 's'}` +
     ` in ${counts.arrangements} arrangement${counts.arrangements === 1 ? '' : 's'}, ${counts.equilibria} certified (${counts.stable} stable${counts.saddles > 0 ? `, ${plural(counts.saddles, 'saddle')}` : ''}), ${failures} without an equilibrium` +
     (counts.exhaustive ? '.' : `; ${counts.skipped} not tried.`);
   return `<!doctype html>
@@ -83,7 +85,7 @@ ${VIEW_STYLES}</style>
 <h1>${escapeXml(source)}</h1>
 <p class="summary">${escapeXml(summary)}</p>
 </header>
-${controls(statuses)}
+${controls(statuses, query.types !== undefined)}
 <p id="counts" role="status" aria-live="polite"></p>
 <main>
 <div id="lists">

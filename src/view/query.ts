@@ -192,7 +192,8 @@ export function viewRows(rows: readonly ViewRow[], view: ViewState): ViewRow[] {
     const x = a.entry;
     const y = b.entry;
     let c = 0;
-    if (view.sort === 'perimeter') c = compareMissingLast(x.perimeter, y.perimeter, sign);
+    // (in a catalogue of typed cells the ranking's energy: entries carry it beside the perimeter)
+    if (view.sort === 'perimeter') c = compareMissingLast(x.energy === undefined ? x.perimeter : x.energy, y.energy === undefined ? y.perimeter : y.energy, sign);
     else if (view.sort === 'gap') c = compareMissingLast(x.gapPercent, y.gapPercent, sign);
     else if (view.sort === 'sides') c = sign * compareSides(sides.get(a)!, sides.get(b)!);
     else c = compareMissingLast(x.index, y.index, sign) || compareMissingLast(x.perimeter, y.perimeter, sign);

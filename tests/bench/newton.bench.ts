@@ -1,5 +1,7 @@
 // Benchmark: relax() answers per second from a cold start (a first drawing, no previous answer) for
-// n = 4, 6, 8, 10, equal and random areas; certified equilibria and named failures counted apart, with
+// n = 4, 6, 8, 10, equal and random areas, and equal areas with random wall tensions in [0.6, 1.6]
+// (drawn again until every junction can balance them, so that each answer is a relaxation), and equal
+// areas with every tension 1.3 (the shapes of unit tension through the weighted kernel); certified equilibria and named failures counted apart, with
 // their mean Newton iterations, the answers that began again from a second drawing, peak memory; then
 // the census of every arrangement with n <= 7 at equal areas. Run: npx tsx tests/bench/newton.bench.ts
 import { enumerateClusters } from '../../src/maps/cluster.ts';
@@ -15,7 +17,7 @@ const SAMPLE: Record<number, { count: number; stride: number }> = {
   8: { count: 300, stride: 37 },
   10: { count: 150, stride: 401 },
 };
-const REPEATS = 3;
+const REPEATS = 5;
 
 function sample(n: number): CubicMap[] {
   const { count, stride } = SAMPLE[n];
@@ -26,6 +28,22 @@ function sample(n: number): CubicMap[] {
     if (out.length === count) break;
   }
   return out;
+}
+
+// Wall tensions uniform in [0.6, 1.6], drawn again until no junction has one at least the sum of the
+// other two (a junction that cannot balance is told before relaxing, which would not measure a relaxation).
+function balancedTensions(map: CubicMap, random: () => number): Float64Array {
+  const wallOf = map.wallIndex();
+  const tensions = new Float64Array(map.twins.length / 2);
+  for (;;) {
+    for (let k = 0; k < tensions.length; k++) tensions[k] = 0.6 + random();
+    let balanced = true;
+    for (let v = 0; v < map.junctionCount; v++) {
+      const [a, b, c] = [tensions[wallOf[3 * v]], tensions[wallOf[3 * v + 1]], tensions[wallOf[3 * v + 2]]];
+      if (a >= b + c || b >= a + c || c >= a + b) balanced = false;
+    }
+    if (balanced) return tensions;
+  }
 }
 
 /** Run the benchmark and print its table; returns the sink so the work cannot be optimised away. */
@@ -39,31 +57,36 @@ export function run(): number {
   for (const n of [4, 6, 8, 10]) {
     const maps = sample(n);
     const random = mulberry32(1000 + n);
-    for (const family of ['equal', 'random'] as const) {
-      const areas = maps.map(() =>
-        Float64Array.from({ length: n }, () => (family === 'equal' ? 1 : 1 + 9 * random())),
-      );
+    const families = (['equal', 'random', 'tension', 'scaled'] as const).map((family) => {
+      const areas = maps.map(() => Float64Array.from({ length: n }, () => (family === 'random' ? 1 + 9 * random() : 1)));
+      // 'scaled': every wall 1.3, the same shapes as 'equal' through the weighted kernel (its cost alone)
+      const options = maps.map((map) =>
+        family === 'tension' ? { tensions: balancedTensions(map, random) }
+          : family === 'scaled' ? { tensions: new Float64Array(map.twins.length / 2).fill(1.3) } : {});
       // warm up (the workspaces and the compiled code, not the answers: every call starts cold)
-      for (let i = 0; i < maps.length; i++) sink += relax(maps[i], areas[i]).iterations;
-      const times: number[] = [];
-      const kinds: Record<string, number> = {};
-      let okIterations = 0;
-      let failIterations = 0;
-      let restarts = 0;
-      for (let rep = 0; rep < REPEATS; rep++) {
+      for (let i = 0; i < maps.length; i++) sink += relax(maps[i], areas[i], options[i]).iterations;
+      return {
+        family, areas, options, times: [] as number[], kinds: {} as Record<string, number>, okIterations: 0, failIterations: 0, restarts: 0,
+      };
+    });
+    // the families take turns within each repeat, so that a change in the machine's load falls on all of them
+    for (let rep = 0; rep < REPEATS; rep++) {
+      for (const f of families) {
         const t0 = performance.now();
         for (let i = 0; i < maps.length; i++) {
-          const r = relax(maps[i], areas[i]);
-          sink += r.perimeter;
+          const r = relax(maps[i], f.areas[i], f.options[i]);
+          sink += r.energy;
           if (rep === 0) {
-            kinds[r.status] = (kinds[r.status] ?? 0) + 1;
-            if (r.status === 'ok') okIterations += r.iterations;
-            else failIterations += r.iterations;
-            restarts += r.restarts;
+            f.kinds[r.status] = (f.kinds[r.status] ?? 0) + 1;
+            if (r.status === 'ok') f.okIterations += r.iterations;
+            else f.failIterations += r.iterations;
+            f.restarts += r.restarts;
           }
         }
-        times.push((performance.now() - t0) / 1000);
+        f.times.push((performance.now() - t0) / 1000);
       }
+    }
+    for (const { family, times, kinds, okIterations, failIterations, restarts } of families) {
       const best = Math.min(...times);
       const ok = kinds.ok ?? 0;
       const failed = maps.length - ok;
@@ -72,7 +95,8 @@ export function run(): number {
         .map(([k, v]) => `${k} ${v}`)
         .join(', ');
       console.log(
-        `n=${n} ${family.padEnd(6)} ${maps.length} clusters: ${(maps.length / best).toFixed(0)} answers/s ` +
+        `n=${n} ${family.padEnd(7)} ${maps.length} clusters: ${(maps.length / best).toFixed(0)} answers/s, ` +
+          `${((okIterations + failIterations) / best).toFixed(0)} Newton iterations/s ` +
           `(${stats(times)}), certified ${ok} (mean iterations ${ok ? (okIterations / ok).toFixed(1) : '-'}), ` +
           `failures ${failed}: ${failures || 'none'} (mean iterations ${failed ? (failIterations / failed).toFixed(1) : '-'}), ` +
           `second drawings ${restarts}`,

@@ -5,6 +5,7 @@ import { renderClusterSvg } from '../../src/render/svg.ts';
 import type { ClusterDrawing } from '../../src/render/types.ts';
 import { doubleBubble, lensInWall, singleBubble, tripleBubble } from './fixtures.ts';
 import { expectSnapshot } from './snapshot.ts';
+import { CELL_FILLS } from '../../src/render/palette.ts';
 
 /** The d attributes of the cell paths and the walls path of a cluster SVG. */
 function paths(svg: string): { cells: string[]; walls: string } {
@@ -114,5 +115,20 @@ describe('renderClusterSvg', () => {
     expect(count(walls, 'A')).toBe(3);
     expect(count(walls, 'L')).toBe(3);
     expectSnapshot('triple-bubble', svg);
+  });
+
+  it('renderClusterSvg of typed cells fills each cell by its type, writes the type in its label and, with tensions, labels every wall', () => {
+    // the palette's rule: typed cells take their type's colour (type 1 the first), colour never the only cue
+    const { drawing } = tripleBubble();
+    const typed: ClusterDrawing = {
+      ...drawing, cellTypes: [1, 2, 2], typeLabels: ['out', 'plain', 'dyed'], tensions: Float64Array.of(1, 1.3, 1, 1.3, 1, 1),
+    };
+    const svg = renderClusterSvg(typed, { tensions: true });
+    const fills = [...svg.matchAll(/<path class="cell" data-cell="(\d+)" fill="(#[0-9a-f]{6})"/g)].map((m) => m[2]);
+    expect(fills).toEqual([CELL_FILLS[0], CELL_FILLS[1], CELL_FILLS[1]]);
+    expect(svg).toContain('>1 plain</text>');
+    expect(svg).toContain('>3 dyed</text>');
+    expect(count(svg, '>1.3</text>')).toBe(2);
+    expect(count(renderClusterSvg(typed), '>1.3</text>')).toBe(0);
   });
 });

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import { enumerateClusters } from '../../src/maps/cluster.ts';
-import { problemOf } from '../../src/solver/problem.ts';
+import { problemOf, withTensions } from '../../src/solver/problem.ts';
 import {
   AREA_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, W_LT, W_LX, W_LY, W_Q,
-  WALL_STRIDE, areaGradientInto, perimeterInto, wallHessianInto,
+  WALL_STRIDE, W_C, W_G, W_LTT, areaGradientInto, perimeterInto, wallHessianInto,
 } from '../../src/solver/wall-terms.ts';
 import { ARC_ARGS, ARC_HESSIAN, arcLengthInto, arcSegmentAreaInto } from '../arcs/reference.ts';
 
@@ -87,5 +87,34 @@ describe('wall-terms', () => {
       }
       expect(Math.abs(perimeter - sum)).toBeLessThan(1e-12 * sum);
     }
+  });
+
+  it('perimeterInto with wall tensions s: energy sum s_k L_k, every length term of the record times s, the arc factors unchanged', () => {
+    // reference: the unweighted records of the same state (design.md §8: the energy's wall part is s L)
+    for (const cluster of enumerateClusters(4)) {
+      const p = problemOf(cluster.map);
+      const t0 = 2 * p.junctions;
+      const z = Float64Array.from({ length: p.size }, (_, i) => (i < t0 ? 3 * (random() - 0.5) : random() - 0.5));
+      const tensions = Float64Array.from({ length: p.walls }, () => 0.6 + random());
+      const plain = new Float64Array(p.walls * WALL_STRIDE);
+      const weighted = new Float64Array(p.walls * WALL_STRIDE);
+      const perimeter = perimeterInto(p, z, plain, new Float64Array(p.cells));
+      const energy = perimeterInto(withTensions(p, tensions), z, weighted, new Float64Array(p.cells));
+      let sum = 0;
+      for (let k = 0; k < p.walls; k++) {
+        const w = k * WALL_STRIDE;
+        sum += tensions[k] * plain[w + W_C] * plain[w + W_G];
+        for (let o = 0; o < WALL_STRIDE; o++) {
+          const lengthTerm = o >= W_LX && o <= W_LTT;
+          const want = lengthTerm ? tensions[k] * plain[w + o] : plain[w + o];
+          expect(Math.abs(weighted[w + o] - want)).toBeLessThan(1e-14 * (1 + Math.abs(want)));
+        }
+      }
+      expect(Math.abs(energy - sum)).toBeLessThan(1e-12 * sum);
+      expect(perimeter).not.toBe(energy);
+    }
+    // unit tensions are the unweighted problem itself (no copy, no multiplication)
+    const p = problemOf([...enumerateClusters(3)][0].map);
+    expect(withTensions(p, new Float64Array(p.walls).fill(1))).toBe(p);
   });
 });

@@ -47,7 +47,7 @@ describe('trackStep', () => {
     const eq = relax(theta.map, a0);
     const mirrored = { ...eq, bulges: eq.bulges.map((t) => -t) };
     expect(sameBranch({ areas: a0, equilibrium: eq }, mirrored, a0)).toBe(true);
-    const other = { ...mirrored, perimeter: eq.perimeter * 1.01 };
+    const other = { ...mirrored, perimeter: eq.perimeter * 1.01, energy: eq.energy * 1.01 };
     expect(sameBranch({ areas: a0, equilibrium: eq }, other, a0)).toBe(false);
   });
 });

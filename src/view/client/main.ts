@@ -6,7 +6,9 @@ import type { CatalogueEntry } from '../../catalogue/types.ts';
 import { clusterFromCode, type Cluster } from '../../maps/cluster.ts';
 import { relax } from '../../solver/newton.ts';
 import type { Equilibrium } from '../../solver/result.ts';
-import { entryDrawing, equilibriumDrawing } from '../../render/entry.ts';
+import { entryDrawing as plainDrawing, equilibriumDrawing, typedDrawing } from '../../render/entry.ts';
+import { typingOfPairs, wallTensions } from '../../solver/tensions.ts';
+import type { ClusterDrawing } from '../../render/types.ts';
 import { renderClusterSvg } from '../../render/svg.ts';
 import { renderContactSheet, type SheetItem } from '../../render/sheet.ts';
 import { escapeXml, formatValue, plural } from '../../render/format.ts';
@@ -16,6 +18,20 @@ import { DEFAULT_VIEW, type ViewRow, type ViewState, passesView, readFragment, v
 import { CardGrid } from './grid.ts';
 
 const data = JSON.parse(document.getElementById(DATA_ELEMENT_ID)!.textContent!) as ViewData;
+// a catalogue of typed cells (walls of different tension): cells drawn by type, live relaxations with the tensions
+const { types: queryTypes, tensions: queryTensions } = data.catalogue.query;
+const typing = queryTypes === undefined ? undefined : typingOfPairs(queryTypes, queryTensions ?? {}, queryTypes.length);
+
+/** An entry's drawing, its cells by type in a typed catalogue. */
+function entryDrawing(entry: CatalogueEntry): ClusterDrawing | null {
+  const drawing = plainDrawing(entry);
+  return drawing === null || typing === undefined ? drawing : typedDrawing(drawing, entry.assignment, typing);
+}
+
+/** The wall tensions of an entry's cells, or null (untyped, or every tension 1). */
+function entryTensions(entry: CatalogueEntry, cluster: Cluster): Float64Array | null {
+  return typing === undefined ? null : wallTensions(cluster.map, entry.assignment.map((i) => typing.types[i]), typing.table);
+}
 const rows: ViewRow[] = data.catalogue.entries.map((entry, position) => ({ entry, facts: data.facts[position], position }));
 const byKey = new Map(rows.map((row) => [row.facts.key, row]));
 // the card a code links to: its first certified entry, else its first failure
@@ -111,7 +127,7 @@ function fillCard(card: HTMLElement, row: ViewRow): void {
     card.innerHTML = `<div class="head"><span>#${entry.rank}</span><span>${html(entry.id)}</span></div>
 <div class="drawing">${cardDrawing(row)}</div>
 <div class="code">${html(entry.code)}</div>
-<dl><dt>perimeter</dt><dd data-perimeter="${entry.perimeter}">${num(entry.perimeter)}</dd><dt>gap</dt><dd>${num(entry.gapPercent, 4)} %</dd>
+<dl>${entry.energy === undefined ? '' : `<dt>energy</dt><dd>${num(entry.energy)}</dd>`}<dt>perimeter</dt><dd data-perimeter="${entry.perimeter}">${num(entry.perimeter)}</dd><dt>gap</dt><dd>${num(entry.gapPercent, 4)} %</dd>
 <dt>index</dt><dd>${entry.index}, zero modes ${entry.zeroModes}</dd>${entry.family === null ? '' : `<dt>family</dt><dd>lens ${entry.family.cell}</dd>`}</dl>
 <div class="row">${stability(entry)} ${pick}</div>`;
   } else {
@@ -300,7 +316,7 @@ function attachLive(panel: HTMLElement, row: ViewRow, cluster: Cluster): void {
     pending = false;
     const areas = Float64Array.from(sliders, (s) => Number(s.value));
     sliders.forEach((s, i) => (s.nextElementSibling!.textContent = formatValue(areas[i], 4)));
-    const eq = relax(cluster.map, areas);
+    const eq = relax(cluster.map, areas, { tensions: entryTensions(row.entry, cluster) });
     showLive(result, picture, row, cluster, areas, eq);
   };
   const schedule = (): void => {
@@ -321,8 +337,11 @@ function showLive(result: HTMLElement, picture: HTMLElement, row: ViewRow, clust
   if (eq.status === 'ok') {
     result.dataset.perimeter = String(eq.perimeter);
     result.classList.remove('failure');
-    result.innerHTML = `Perimeter <strong>${formatValue(eq.perimeter, 12)}</strong> (certified, index ${eq.index}, zero modes ${eq.zeroModes})`;
-    picture.innerHTML = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, row.entry.id), { sizePx: 300, headings: false, pressures: true });
+    const measure = typing === undefined ? `Perimeter <strong>${formatValue(eq.perimeter, 12)}</strong>` : `Energy <strong>${formatValue(eq.energy, 12)}</strong>, length ${formatValue(eq.perimeter, 12)}`;
+    result.innerHTML = `${measure} (certified, index ${eq.index}, zero modes ${eq.zeroModes})`;
+    const typed = typing === undefined ? undefined
+      : { cellTypes: row.entry.assignment.map((i) => typing.types[i]), typeLabels: typing.table.labels, tensions: entryTensions(row.entry, cluster) };
+    picture.innerHTML = renderClusterSvg(equilibriumDrawing(cluster, areas, eq, row.entry.id, typed), { sizePx: 300, headings: false, pressures: true });
   } else {
     delete result.dataset.perimeter;
     result.classList.add('failure');
