@@ -92,6 +92,28 @@ export function certificatePasses(certificate: Certificate, tolerance: number): 
 export function checkEquilibrium(
   map: CubicMap, areas: Float64Array, result: EquilibriumGeometry, tensions: Float64Array | null = null,
 ): Certificate {
+  // At areas far from 1 (1e300 or 1e-300) squares of lengths and areas overflow or underflow: check at
+  // lengths divided by the power of two nearest the cluster's unit (exact, so the residuals are those
+  // at scale 1) and give the lengths and areas back in the caller's units (tensions do not scale).
+  let total = 0;
+  for (let i = 0; i < areas.length; i++) total += areas[i];
+  const shift = Math.round(Math.log2(Math.sqrt(total / areas.length)));
+  if (!Number.isFinite(shift) || shift === 0) return checkAtScale(map, areas, result, tensions);
+  const length = 2 ** -shift;
+  const area = length * length;
+  const scaled = checkAtScale(map, areas.map((x) => x * area), {
+    coords: result.coords.map((x) => x * length),
+    bulges: result.bulges,
+    pressures: result.pressures.map((x) => x / length),
+  }, tensions);
+  scaled.minWallLength /= length;
+  scaled.minCellArea /= area;
+  return scaled;
+}
+
+function checkAtScale(
+  map: CubicMap, areas: Float64Array, result: EquilibriumGeometry, tensions: Float64Array | null,
+): Certificate {
   const { twins, faceStarts, faceDarts } = map;
   const cells = areas.length;
   let total = 0;

@@ -458,7 +458,7 @@ function shiftScalesInto(problem: ClusterProblem, cache: Float64Array, mu: Float
 }
 
 // Largest relative area error.
-function violationOf(areas: Float64Array, targets: Float64Array, cells: number): number {
+export function violationOf(areas: Float64Array, targets: Float64Array, cells: number): number {
   let worst = 0;
   for (let f = 0; f < cells; f++) {
     const v = Math.abs(areas[f] - targets[f]) / targets[f];

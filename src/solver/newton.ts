@@ -21,7 +21,8 @@ import { embedClusterInto } from '../arcs/embed.ts';
 import { drawByInsertionInto } from '../arcs/insertion.ts';
 import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
-import { descend } from './descent.ts';
+import { descend, violationOf } from './descent.ts';
+import { findRootFrom } from './roots.ts';
 import { type NewtonOptions, type ResolvedNewtonOptions, resolveOptions } from './options.ts';
 import { type ClusterProblem, problemOf, withTensions } from './problem.ts';
 import { curvaturePressuresInto } from './pressures.ts';
@@ -72,7 +73,21 @@ const NO_CONVERGENCE: Verdict = { status: 'no-convergence', wall: null, cell: nu
 function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions, warm: boolean): Attempt {
   const d = descend(problem, ws, opt, opt.maxIterations, warm);
   let iterations = d.iterations;
-  const verdict = verdictOf(problem, ws, opt, d.end);
+  let end = d.end;
+  perimeterInto(problem, ws.z, ws.cache, ws.areas);
+  if (end === 'settled' && violationOf(ws.areas, ws.targets, problem.cells) > opt.tolerance) {
+    // Did the descent settle at its rounding floor with an area still off by more than the tolerance?
+    // (A cell far smaller than the rest: the merit, of the largest cells' size, no longer sees its area
+    // error.) Newton's method on the equations themselves asks for the area back exactly.
+    // (kept in the family buffer's first state, which is filled only after this)
+    const kept = familyBuffers(problem.size).first;
+    kept.set(ws.z);
+    centreSmallestCell(problem, ws.z, ws.targets);
+    const root = findRootFrom(problem, ws, opt, POLISH_BUDGET);
+    iterations += root.iterations;
+    if (!root.converged) ws.z.set(kept);
+  }
+  const verdict = verdictOf(problem, ws, opt, end);
   if (verdict.status !== 'wall-collapse' || lensHostOf(problem, verdict.wall as number) === null) return { verdict, iterations };
   const { first, trial } = familyBuffers(problem.size);
   first.set(ws.z);
@@ -120,6 +135,35 @@ function verdictOf(problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOp
   return OK;
 }
 
+// Move the drawing z so that the junctions of the cell of the smallest target are centred on the
+// origin: cell areas are sums of cross products of junction coordinates (wall-terms.ts), so a cell of
+// area 1e-12 drawn 1e-2 from the origin is resolved only to about 1e-9 of its area (small-cells.ts
+// places it so at the start; a descent may carry it away).
+function centreSmallestCell(problem: ClusterProblem, z: Float64Array, targets: Float64Array): void {
+  const { cells, junctions, walls, starts, ends, lefts, rights } = problem;
+  let small = 0;
+  for (let f = 1; f < cells; f++) if (targets[f] < targets[small]) small = f;
+  let x = 0;
+  let y = 0;
+  let count = 0;
+  for (let k = 0; k < walls; k++) {
+    if (lefts[k] !== small && rights[k] !== small) continue;
+    for (const v of [starts[k], ends[k]]) {
+      x += z[2 * v];
+      y += z[2 * v + 1];
+      count += 1;
+    }
+  }
+  x /= count;
+  y /= count;
+  for (let v = 0; v < junctions; v++) {
+    z[2 * v] -= x;
+    z[2 * v + 1] -= y;
+  }
+}
+
+// Newton iterations of the polish of a descent settled at its rounding floor (settle).
+const POLISH_BUDGET = 20;
 // Times a lens is moved back to the middle of its family after its descent slid it to an end.
 const FAMILY_TRIES = 3;
 const FAMILY_WATCH = 1e-2;

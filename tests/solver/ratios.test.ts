@@ -2,6 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { thetaMap } from '../../src/maps/cubic-map.ts';
 import { relax } from '../../src/solver/newton.ts';
 import { rankAreas } from '../../src/catalogue/rank.ts';
+import { clusterFromCode } from '../../src/maps/cluster.ts';
+import { certificatePasses } from '../../src/solver/certificate.ts';
 import { polylineCheck, polylinePasses } from './polyline.ts';
 
 // The standard double bubble of areas (A1, A2), derived here from its one-parameter family: three arcs
@@ -70,6 +72,37 @@ describe('far-apart areas', () => {
       const three = await rankAreas([1, 1, r]);
       const first = three.entries[0];
       expect([first.status, first.code, first.index, first.zeroModes], `3: ${r}`).toEqual(['ok', '3:...b7a', 0, 0]);
+    }
+  }, 60_000);
+
+  it('relax finds the triple bubble with its tiny cell in every position, at areas 1, 1, 1e-12 and 1e-9', () => {
+    // the standard triple bubble minimises for any three areas ("Proof of the planar triple bubble
+    // conjecture", J. reine angew. Math. 567 (2004)); its three cells are alike (K4's symmetry), so every
+    // labelling is the same cluster with the same perimeter
+    const { map } = clusterFromCode('3:...b7a');
+    for (const r of [1e-12, 1e-9]) {
+      const perimeters: number[] = [];
+      for (const areas of [[1, 1, r], [1, r, 1], [r, 1, 1]]) {
+        const e = relax(map, Float64Array.from(areas));
+        expect([e.status, e.index, e.zeroModes, certificatePasses(e.certificate, 1e-10)], String(areas)).toEqual(['ok', 0, 0, true]);
+        perimeters.push(e.perimeter);
+      }
+      for (const p of perimeters) expect(Math.abs(p / perimeters[0] - 1), String(r)).toBeLessThan(1e-10);
+    }
+  });
+
+  it('areas 1, 2, 3 times 1e-300 and 1e300 rank as at scale 1, perimeters scaled by the square root', async () => {
+    // perimeter scales as the square root of the areas (design.md §4): the same order, statuses, indices
+    // and zero modes at any scale the floating point numbers reach
+    const base = await rankAreas([1, 2, 3]);
+    for (const scale of [1e-300, 1e300]) {
+      const scaled = await rankAreas([scale, 2 * scale, 3 * scale]);
+      expect(scaled.entries.length, String(scale)).toBe(base.entries.length);
+      base.entries.forEach((b, i) => {
+        const s = scaled.entries[i];
+        expect([s.code, s.status, s.index, s.zeroModes, s.assignment], `${scale} ${i}`).toEqual([b.code, b.status, b.index, b.zeroModes, b.assignment]);
+        if (b.status === 'ok') expect(Math.abs((s.perimeter as number) / Math.sqrt(scale) / (b.perimeter as number) - 1), `${scale} ${i}`).toBeLessThan(1e-9);
+      });
     }
   }, 60_000);
 });
