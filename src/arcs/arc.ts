@@ -141,6 +141,24 @@ export function segmentFactor(t: number): number {
 }
 
 /**
+ * The bulge t in (-pi, pi) whose segment factor h(t) (segmentFactor) is `value`: h is odd and increasing
+ * from -infinity to infinity, so bisection on t down to adjacent doubles (a nearly full circle, t within
+ * 1e-6 of pi, keeps every digit t can hold).
+ */
+export function bulgeForSegmentFactor(value: number): number {
+  const v = Math.abs(value);
+  let lo = 0;
+  let hi = Math.PI;
+  for (let i = 0; i < 80; i++) {
+    const mid = 0.5 * (lo + hi);
+    if (mid === lo || mid === hi) break;
+    if (segmentFactor(mid) < v) lo = mid;
+    else hi = mid;
+  }
+  return value < 0 ? -lo : lo;
+}
+
+/**
  * Bulge of the circular arc from a through m to b (positive when m lies left of a->b): pi minus the
  * angle a-m-b, signed (the tangent-chord angle equals the inscribed angle on the other side; school geometry, no source). A point m on the chord gives 0;
  * a point beyond the chord's ends is clamped to just inside (-pi, pi).

@@ -75,7 +75,7 @@ function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: Reso
   let iterations = d.iterations;
   let end = d.end;
   perimeterInto(problem, ws.z, ws.cache, ws.areas);
-  if (end === 'settled' && violationOf(ws.areas, ws.targets, problem.cells) > opt.tolerance) {
+  if ((end === 'settled' && violationOf(ws.areas, ws.targets, problem.cells) > opt.tolerance) || end === 'stalled' || end === 'max-iterations') {
     // Did the descent settle at its rounding floor with an area still off by more than the tolerance?
     // (A cell far smaller than the rest: the merit, of the largest cells' size, no longer sees its area
     // error.) Newton's method on the equations themselves asks for the area back exactly.
@@ -85,7 +85,8 @@ function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: Reso
     centreSmallestCell(problem, ws.z, ws.targets);
     const root = findRootFrom(problem, ws, opt, POLISH_BUDGET);
     iterations += root.iterations;
-    if (!root.converged) ws.z.set(kept);
+    if (root.converged || certificatePasses(certificateAt(map, problem, ws), opt.certificateTolerance)) end = 'settled';
+    else ws.z.set(kept);
   }
   const verdict = verdictOf(problem, ws, opt, end);
   if (verdict.status !== 'wall-collapse' || lensHostOf(problem, verdict.wall as number) === null) return { verdict, iterations };
@@ -113,12 +114,17 @@ function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: Reso
 
 // Walls that cross at the state ws.z (normalised units, checked against the normalised targets).
 function crossingsAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): number {
+  return certificateAt(map, problem, ws).crossings;
+}
+
+// The certificate of the state ws.z (normalised units, checked against the normalised targets).
+function certificateAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): Certificate {
   const t0 = 2 * problem.junctions;
   const p0 = t0 + problem.walls;
   const z = ws.z;
   return checkEquilibrium(map, ws.targets.subarray(0, problem.cells), {
     coords: z.subarray(0, t0), bulges: z.subarray(t0, p0), pressures: z.subarray(p0, p0 + problem.cells),
-  }).crossings;
+  });
 }
 
 // The verdict of a descent that ended with `end` at ws.z.
@@ -482,7 +488,7 @@ function approachInRatio(
       drawStart(map, problem, ws, 'auto');
       shrinkSmallCells(problem, ws);
     }
-    const stage = settle(map, problem, ws, opt, s > 0);
+    const stage = s > 0 ? continueTo(map, problem, ws, opt) : settle(map, problem, ws, opt, false);
     iterations += stage.iterations;
     if (stage.verdict.status !== 'ok') {
       ws.targets.set(goal);
@@ -492,6 +498,31 @@ function approachInRatio(
     }
   }
   return { verdict: OK, iterations };
+}
+
+// Cells drawn this many times their targets are shrunk before a stage's Newton's method.
+const PREDICT_FACTOR = 1.5;
+
+// One stage of approachInRatio, from the last stage's equilibrium in ws.z: Newton's method on the
+// equations first (the targets moved by a factor STAGE: the equilibrium moved a little, and Newton's
+// method converges where a descent's merit no longer resolves a small cell), a warm descent if not.
+function continueTo(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): Attempt {
+  const kept = familyBuffers(problem.size).trial;
+  kept.set(ws.z);
+  // (the predictor: the cells whose targets fell shrunk to them, the same shapes smaller)
+  perimeterInto(problem, ws.z, ws.cache, ws.areas);
+  shrinkSmallCellsInto(problem, ws.z, ws.targets, ws.areas, PREDICT_FACTOR);
+  centreSmallestCell(problem, ws.z, ws.targets);
+  const root = findRootFrom(problem, ws, opt, POLISH_BUDGET);
+  if (root.converged || certificatePasses(certificateAt(map, problem, ws), opt.certificateTolerance)) {
+    const verdict = verdictOf(problem, ws, opt, 'settled');
+    if (verdict.status === 'ok') return { verdict, iterations: root.iterations };
+  }
+  // (else a warm descent from the last stage's equilibrium; settle uses the family buffers, so it is
+  // copied back first)
+  ws.z.set(kept);
+  const stage = settle(map, problem, ws, opt, true);
+  return { verdict: stage.verdict, iterations: stage.iterations + root.iterations };
 }
 
 // Relax again from another first drawing; the first attempt's state is kept (and its verdict returned,
