@@ -226,6 +226,14 @@ function bulgeOnCircle(problem: ClusterProblem, z: Float64Array, k: number, circ
  * and largest (kb gone) it reaches while sliding. null when the lens is not set in one wall.
  */
 export function lensSharesOf(problem: ClusterProblem, z: Float64Array, host: LensHost): { at: number; from: number; to: number } | null {
+  // (the shares are ratios of lengths: at lengths far from 1, 1e150 at areas 1e300, squares overflow,
+  // so the junctions are first divided by the power of two nearest the lens's chord, which is exact)
+  const shift = Math.round(Math.log2(distance(z, host.a, host.b)));
+  if (shift !== 0 && Number.isFinite(shift)) {
+    const scaled = Float64Array.from(z);
+    for (let i = 0; i < 2 * problem.junctions; i++) scaled[i] *= 2 ** -shift;
+    return lensSharesOf(problem, scaled, host);
+  }
   const circle = hostCircleOf(problem, z, host);
   if (circle === undefined) return null;
   const chord = distance(z, host.a, host.b);
