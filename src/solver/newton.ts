@@ -76,16 +76,19 @@ function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: Reso
   let end = d.end;
   perimeterInto(problem, ws.z, ws.cache, ws.areas);
   if ((end === 'settled' && violationOf(ws.areas, ws.targets, problem.cells) > opt.tolerance) || end === 'stalled' || end === 'max-iterations') {
-    // Did the descent settle at its rounding floor with an area still off by more than the tolerance?
-    // (A cell far smaller than the rest: the merit, of the largest cells' size, no longer sees its area
-    // error.) Newton's method on the equations themselves asks for the area back exactly.
+    // Did the descent settle at its rounding floor with an area still off by more than the tolerance,
+    // or not settle? (A cell far smaller than the rest: the merit, of the largest cells' size, no longer
+    // sees its area error.) Newton's method on the equations themselves asks for the area back exactly.
+    // Its end is kept only when it is a certified equilibrium in order (else the descent's end, and its
+    // verdict, which may send relax() to another start, stand).
     // (kept in the family buffer's first state, which is filled only after this)
     const kept = familyBuffers(problem.size).first;
     kept.set(ws.z);
     centreSmallestCell(problem, ws.z, ws.targets);
     const root = findRootFrom(problem, ws, opt, POLISH_BUDGET);
     iterations += root.iterations;
-    if (root.converged || certificatePasses(certificateAt(map, problem, ws), opt.certificateTolerance)) end = 'settled';
+    const certified = root.converged || certificatePasses(certificateAt(map, problem, ws), opt.certificateTolerance);
+    if (certified && verdictOf(problem, ws, opt, 'settled').status === 'ok') end = 'settled';
     else ws.z.set(kept);
   }
   const verdict = verdictOf(problem, ws, opt, end);
