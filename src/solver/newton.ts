@@ -127,7 +127,7 @@ function certificateAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): C
   const z = ws.z;
   return checkEquilibrium(map, ws.targets.subarray(0, problem.cells), {
     coords: z.subarray(0, t0), bulges: z.subarray(t0, p0), pressures: z.subarray(p0, p0 + problem.cells),
-  });
+  }, problem.tensions);
 }
 
 // The verdict of a descent that ended with `end` at ws.z.
