@@ -115,3 +115,81 @@ export function tridiagonalEigenvaluesInto(diagonal: Float64Array, offDiagonal: 
   }
   return true;
 }
+
+// Most cyclic sweeps of the Jacobi method (it converges quadratically; six to ten are typical).
+const JACOBI_SWEEPS = 50;
+// The sweeps stop when the off-diagonal part's squared norm is at most JACOBI_OFF of the whole's (its
+// norm 1e-14 of the matrix's: the rounding level, below which rotations only move rounding errors).
+const JACOBI_OFF = 1e-28;
+
+/**
+ * Eigenvalues and eigenvectors of the symmetric n x n row-major matrix `a` (both triangles filled;
+ * overwritten) by the cyclic Jacobi method ("Matrix Computations", 4th ed., 2013, §8.5.3): `values` in
+ * ascending order and `vectors` row i the unit eigenvector of values[i]. `scratch` holds n numbers. Returns
+ * false when the off-diagonal part did not vanish in JACOBI_SWEEPS sweeps (never seen for finite input).
+ */
+export function symmetricEigenInto(a: Float64Array, n: number, values: Float64Array, vectors: Float64Array, scratch: Float64Array): boolean {
+  const v = vectors;
+  v.fill(0, 0, n * n);
+  for (let i = 0; i < n; i++) v[i * n + i] = 1;
+  let converged = false;
+  for (let sweep = 0; sweep < JACOBI_SWEEPS && !converged; sweep++) {
+    let off = 0;
+    let all = 0;
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        const x = a[i * n + j] * a[i * n + j];
+        all += x;
+        if (i !== j) off += x;
+      }
+    }
+    if (!(off > JACOBI_OFF * all)) {
+      converged = Number.isFinite(all);
+      break;
+    }
+    for (let p = 0; p + 1 < n; p++) {
+      for (let q = p + 1; q < n; q++) {
+        const apq = a[p * n + q];
+        if (apq === 0) continue;
+        // the rotation that zeroes a_pq (the smaller angle)
+        const theta = (a[q * n + q] - a[p * n + p]) / (2 * apq);
+        const t = (theta >= 0 ? 1 : -1) / (Math.abs(theta) + Math.sqrt(theta * theta + 1));
+        const c = 1 / Math.sqrt(t * t + 1);
+        const s = t * c;
+        for (let k = 0; k < n; k++) {
+          const akp = a[k * n + p];
+          const akq = a[k * n + q];
+          a[k * n + p] = c * akp - s * akq;
+          a[k * n + q] = s * akp + c * akq;
+        }
+        for (let k = 0; k < n; k++) {
+          const apk = a[p * n + k];
+          const aqk = a[q * n + k];
+          a[p * n + k] = c * apk - s * aqk;
+          a[q * n + k] = s * apk + c * aqk;
+        }
+        for (let k = 0; k < n; k++) {
+          const vpk = v[p * n + k];
+          const vqk = v[q * n + k];
+          v[p * n + k] = c * vpk - s * vqk;
+          v[q * n + k] = s * vpk + c * vqk;
+        }
+      }
+    }
+  }
+  if (!converged) return false;
+  // ascending order: a selection sort moving each value's row of `vectors` with it (n is small)
+  for (let i = 0; i < n; i++) values[i] = a[i * n + i];
+  for (let i = 0; i + 1 < n; i++) {
+    let least = i;
+    for (let j = i + 1; j < n; j++) if (values[j] < values[least]) least = j;
+    if (least === i) continue;
+    const x = values[i];
+    values[i] = values[least];
+    values[least] = x;
+    scratch.set(v.subarray(i * n, i * n + n));
+    v.copyWithin(i * n, least * n, least * n + n);
+    v.set(scratch.subarray(0, n), least * n);
+  }
+  return true;
+}

@@ -14,7 +14,13 @@
 // start's descent path (its first drawing, and after each of PATH_BUDGETS steps: the path passes near
 // the saddles that guard its way, a collapse's included) and from perturbations of every certified
 // equilibrium found; each end is certified and classified as relax() does its answers (newton.ts
-// answerAtState). Not yet tried: a minimisation with a collapsing wall held at a fixed short length.
+// answerAtState). Then two searches aimed at saddles (modes.ts): mode following uphill from every
+// stable equilibrium found (each of the lowest modes in both directions, the lowest two together), and
+// at equal areas a search kept on the drawings with a group of the arrangement's symmetries
+// (symmetry.ts), each end polished by Newton's method and certified the same way. Measured at n = 4..6
+// equal areas: the mode following ends at a wall shrinking to nothing (the lowest passes out of these
+// minima are T1 changes of arrangement) and the symmetric search at the known minima; no saddle found.
+// Not yet tried: a minimisation with a collapsing wall held at a fixed short length.
 
 import { UsageError } from '../errors.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
@@ -26,7 +32,9 @@ import {
 import { type NewtonOptions, resolveOptions } from './options.ts';
 import { problemOf } from './problem.ts';
 import type { Equilibrium } from './result.ts';
+import { followModes } from './modes.ts';
 import { findRootFrom } from './roots.ts';
+import { type StateSymmetry, cyclicGroupOf, stateSymmetriesOf, symmetriseInto } from './symmetry.ts';
 
 /** Options of findEquilibria(): the relaxer's, and how hard to search. */
 export interface SearchOptions extends NewtonOptions {
@@ -153,6 +161,14 @@ const ROOT_BUDGET = 40;
 const PATH_BUDGETS = [0, 1, 2, 4, 8, 16, 32];
 const PERTURBED = 4;
 const SADDLE_PERTURBATIONS = [0.3, 0.6];
+// Mode following (modes.ts) from every stable equilibrium found: each of the FOLLOWED lowest non-zero
+// modes in both directions, and the lowest two together in the four pairs of directions, at most
+// FOLLOW_BUDGET steps each. At equal areas, the symmetric search: the first drawings descended
+// SYMMETRIC_DESCENT steps, then kept on the drawings with one group of symmetries (the whole group
+// and the cyclic group of each symmetry) for at most FOLLOW_BUDGET steps.
+const FOLLOWED = 3;
+const FOLLOW_BUDGET = 60;
+const SYMMETRIC_DESCENT = 16;
 
 // The i-th start (i >= 1): the construction-path drawing, then perturbations of the barycentric and the
 // construction-path drawings in turn.
@@ -202,6 +218,40 @@ function findSaddles(map: CubicMap, areas: Float64Array, newton: NewtonOptions, 
       tryRoot({ drawing: known[j], seed: mix(seed, 1000 * (j + 1) + m), amplitude }, 0);
     }
   }
+  // mode following from every stable equilibrium, then Newton's method from where it ends
+  const follow = (start: DrawingStart, modes: number[], signs: number[], group: readonly StateSymmetry[] | null): void => {
+    const state = drawingState(map, areas, start);
+    if (state === null) return;
+    const { problem, ws } = state;
+    let iterations = 0;
+    let project: ((z: Float64Array) => void) | null = null;
+    if (group !== null) {
+      iterations += descend(problem, ws, opt, SYMMETRIC_DESCENT, false).iterations;
+      const scratch = new Float64Array(problem.size);
+      project = (z) => symmetriseInto(problem, group, z, scratch);
+      project(ws.z);
+    }
+    const path = followModes(problem, ws, modes, signs, FOLLOW_BUDGET, project);
+    iterations += path.iterations;
+    if (path.converged) {
+      const root = findRootFrom(problem, ws, opt, ROOT_BUDGET);
+      iterations += root.iterations;
+      if (root.converged) search.add(answerAtState(map, areas, ws.z, iterations, newton), 0);
+    }
+    search.iterations += iterations;
+  };
+  for (const eq of known) {
+    if (eq.index !== 0) continue;
+    const start: DrawingStart = { drawing: eq, seed: null, amplitude: 0 };
+    for (let m = 0; m < FOLLOWED; m++) for (const sign of [1, -1]) follow(start, [m], [sign], null);
+    for (const a of [1, -1]) for (const b of [1, -1]) follow(start, [0, 1], [a, b], null);
+  }
+  // the symmetric search, at equal areas (where every symmetry of the arrangement keeps the equations)
+  if (!areas.every((a) => a === areas[0])) return;
+  const symmetries = stateSymmetriesOf(map);
+  if (symmetries.length < 2) return;
+  const groups = [symmetries, ...symmetries.slice(1).map(cyclicGroupOf)];
+  for (const group of groups) for (const start of drawings.slice(0, 2)) follow(start, [], [], group);
 }
 
 // The distinct certified equilibria seen so far.
