@@ -9,6 +9,25 @@ function eigenvalues(a: Float64Array, n: number): number[] {
   return Array.from(d).sort((x, y) => x - y);
 }
 
+// Q diag(lambda) Q^T for Q a product of three reflections I - 2 v v^T with seeded random unit v
+function similarTo(lambda: number[], seed0: number): Float64Array {
+  let seed = seed0;
+  const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647) - 0.5;
+  const n = lambda.length;
+  const a = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) a[i * n + i] = lambda[i];
+  for (let r = 0; r < 3; r++) {
+    // A <- (I - 2 v v^T) A (I - 2 v v^T) with |v| = 1
+    const v = Array.from({ length: n }, random);
+    const norm = Math.hypot(...v);
+    for (let i = 0; i < n; i++) v[i] /= norm;
+    const av = Array.from({ length: n }, (_, i) => v.reduce((s, vj, j) => s + a[i * n + j] * vj, 0));
+    const vav = v.reduce((s, vi, i) => s + vi * av[i], 0);
+    for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] += -2 * v[i] * av[j] - 2 * av[i] * v[j] + 4 * vav * v[i] * v[j];
+  }
+  return a;
+}
+
 describe('symmetric eigenvalues', () => {
   it('the second-difference matrix of order n has eigenvalues 2 - 2 cos(k pi / (n + 1))', () => {
     // the spectrum of the tridiagonal Toeplitz matrix (2, -1) (common practice, no source)
@@ -29,21 +48,9 @@ describe('symmetric eigenvalues', () => {
 
   it('Q diag(lambda) Q^T, Q a product of reflections, gives back lambda (zeros and negatives included)', () => {
     // orthogonal similarity keeps the spectrum (common practice, no source)
-    let seed = 7;
-    const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647) - 0.5;
     for (const n of [3, 8, 25]) {
       const lambda = Array.from({ length: n }, (_, i) => (i % 5 === 0 ? 0 : i % 3 === 0 ? -(i + 1) : 1e-3 * (i + 1)));
-      const a = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) a[i * n + i] = lambda[i];
-      for (let r = 0; r < 3; r++) {
-        // A <- (I - 2 v v^T) A (I - 2 v v^T) with |v| = 1
-        const v = Array.from({ length: n }, random);
-        const norm = Math.hypot(...v);
-        for (let i = 0; i < n; i++) v[i] /= norm;
-        const av = Array.from({ length: n }, (_, i) => v.reduce((s, vj, j) => s + a[i * n + j] * vj, 0));
-        const vav = v.reduce((s, vi, i) => s + vi * av[i], 0);
-        for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] += -2 * v[i] * av[j] - 2 * av[i] * v[j] + 4 * vav * v[i] * v[j];
-      }
+      const a = similarTo(lambda, 7 + n);
       const got = eigenvalues(a, n);
       const want = [...lambda].sort((x, y) => x - y);
       for (let k = 0; k < n; k++) expect(Math.abs(got[k] - want[k])).toBeLessThan(1e-12 * n);
@@ -77,20 +84,9 @@ describe('symmetric eigenvalues', () => {
 
   it('the Jacobi method: Q diag(lambda) Q^T gives back lambda in ascending order and A v = lambda v', () => {
     // orthogonal similarity keeps the spectrum (common practice, no source)
-    let seed = 11;
-    const random = (): number => ((seed = (seed * 16807) % 2147483647) / 2147483647) - 0.5;
     for (const n of [3, 12, 40]) {
       const lambda = Array.from({ length: n }, (_, i) => (i % 4 === 0 ? 0 : i % 3 === 0 ? -(i + 1) : 0.5 * (i + 1)));
-      const a = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) a[i * n + i] = lambda[i];
-      for (let r = 0; r < 3; r++) {
-        const v = Array.from({ length: n }, random);
-        const norm = Math.hypot(...v);
-        for (let i = 0; i < n; i++) v[i] /= norm;
-        const av = Array.from({ length: n }, (_, i) => v.reduce((s, vj, j) => s + a[i * n + j] * vj, 0));
-        const vav = v.reduce((s, vi, i) => s + vi * av[i], 0);
-        for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) a[i * n + j] += -2 * v[i] * av[j] - 2 * av[i] * v[j] + 4 * vav * v[i] * v[j];
-      }
+      const a = similarTo(lambda, 11 + n);
       const kept = Float64Array.from(a);
       const values = new Float64Array(n);
       const vectors = new Float64Array(n * n);
