@@ -12,6 +12,7 @@ import { rootedMapCount } from '../maps/count.ts';
 import { summarizeCluster } from '../maps/describe.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from '../solver/certificate.ts';
 import { resolveOptions } from '../solver/options.ts';
+import { SAME_PERIMETER, SAME_PRESSURE } from '../solver/equilibria.ts';
 import { type CellTyping, typingOfPairs, wallTensions } from '../solver/tensions.ts';
 import { CatalogueFormatError, MapError, UsageError } from '../errors.ts';
 import { type AreaClasses, areaClasses, labelledAssignmentCount, orbitCount, orbitRepresentative, userIndices } from './assign.ts';
@@ -34,18 +35,17 @@ export const WRITE_ROUNDING = 0.5 * 10 ** (1 - WRITE_DIGITS);
 export const MAX_ROUNDING_SLACK = 1e-4;
 
 /**
- * Relative perimeter difference above which two equilibria of one candidate are distinct (the search's
- * rule, documented on solver/equilibria.ts EquilibriumSearch.found).
- * NOTE: the solver's contract states the value in words only; it should export it, and this should read it.
+ * Relative perimeter difference above which two equilibria of one candidate are distinct: the search's
+ * own rule (solver/equilibria.ts SAME_PERIMETER).
  */
-export const SAME_EQUILIBRIUM = 1e-9;
+export const SAME_EQUILIBRIUM = SAME_PERIMETER;
 
 /**
  * Two equilibria of one candidate at the same perimeter are still distinct when a pressure differs by
- * more than this times the largest |pressure| (or 1/sqrt(mean area)). Half the search's own threshold
- * (1e-6 in the search under way for issue 11), so the reader never refuses what the search kept apart.
+ * more than this times the largest |pressure| (or 1/sqrt(mean area)): half the search's own threshold
+ * (SAME_PRESSURE), so the reader never refuses what the search kept apart.
  */
-export const SAME_PRESSURES = 0.5e-6;
+export const SAME_PRESSURES = 0.5 * SAME_PRESSURE;
 
 /** The tolerance an 'ok' certificate is held to: the relaxer's own (solver/options.ts). */
 export const CERTIFICATE_TOLERANCE = resolveOptions().certificateTolerance;

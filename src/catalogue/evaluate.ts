@@ -7,7 +7,7 @@
 
 import { clusterFromCode, cellPermutations } from '../maps/cluster.ts';
 import { wallSwapCode } from '../maps/t1.ts';
-import { type EquilibriumSearch, findEquilibria } from '../solver/equilibria.ts';
+import { type EquilibriumSearch, findEquilibria, searchAnswer } from '../solver/equilibria.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import { type TensionTable, wallTensions } from '../solver/tensions.ts';
 import type { Equilibrium } from '../solver/result.ts';
@@ -62,14 +62,6 @@ export interface CandidateResult {
   equilibrium: Equilibrium;
   /** For a wall collapse: the code of the arrangement the T1 swap of that wall leads to, if admissible. */
   becomes: string | null;
-}
-
-/**
- * The answer a search stands for: its first equilibrium (the least stable one when there is one), else
- * its failure. NOTE: a natural home is solver/equilibria.ts, beside the search.
- */
-export function searchAnswer(search: EquilibriumSearch): Equilibrium {
-  return search.found.length > 0 ? search.found[0].equilibrium : search.failure!;
 }
 
 /** Relax the candidates of one cluster task, in a deterministic order. */

@@ -144,10 +144,17 @@ export function findEquilibria(
   return search.result(map, first, tried);
 }
 
-// Two certified answers are one equilibrium when their perimeters agree to SAME_PERIMETER relative and
-// every pressure to SAME_PRESSURE times the largest |pressure| (plus the scale 1/sqrt(mean area)).
-const SAME_PERIMETER = 1e-9;
-const SAME_PRESSURE = 1e-6;
+/**
+ * Two certified answers are one equilibrium when their perimeters agree to SAME_PERIMETER relative and
+ * every pressure to SAME_PRESSURE times the largest |pressure| (plus the scale 1/sqrt(mean area)).
+ */
+export const SAME_PERIMETER = 1e-9;
+export const SAME_PRESSURE = 1e-6;
+
+/** The answer a search stands for: its first equilibrium (the least stable one when there is one), else its failure. */
+export function searchAnswer(search: EquilibriumSearch): Equilibrium {
+  return search.found.length > 0 ? search.found[0].equilibrium : search.failure!;
+}
 // Areas this close to equal (relative) that no start brought to an equilibrium are reached by
 // continuation from the equal-area equilibrium.
 const NEAR_EQUAL = 1e-3;

@@ -4,7 +4,7 @@ export * from '../errors.ts';
 export { embedCluster } from '../arcs/embed.ts';
 export { relax, relaxFrom, type EquilibriumStart } from './newton.ts';
 export {
-  DEFAULT_STARTS, type EquilibriumSearch, type FoundEquilibrium, type LensRange, type SearchOptions, findEquilibria,
+  DEFAULT_STARTS, type EquilibriumSearch, type FoundEquilibrium, type LensRange, type SearchOptions, findEquilibria, searchAnswer,
 } from './equilibria.ts';
 export { type NewtonOptions, resolveOptions } from './options.ts';
 export type { Equilibrium, EquilibriumStatus } from './result.ts';
