@@ -30,7 +30,7 @@ function similarTo(lambda: number[], seed0: number): Float64Array {
 
 describe('symmetric eigenvalues', () => {
   it('the second-difference matrix of order n has eigenvalues 2 - 2 cos(k pi / (n + 1))', () => {
-    // the spectrum of the tridiagonal Toeplitz matrix (2, -1) (common practice, no source)
+    // the spectrum of the second-difference matrix (2 on the diagonal, -1 beside it) (common practice, no source)
     for (const n of [1, 2, 5, 17, 40]) {
       const a = new Float64Array(n * n);
       for (let i = 0; i < n; i++) {
@@ -58,7 +58,7 @@ describe('symmetric eigenvalues', () => {
   });
 
   it('the Jacobi method gives the second-difference matrix its eigenpairs 2 - 2 cos(k pi / (n + 1)), sin(j k pi / (n + 1))', () => {
-    // the spectrum and the eigenvectors of the tridiagonal Toeplitz matrix (2, -1) (common practice, no source)
+    // the spectrum and the eigenvectors of the second-difference matrix (2 on the diagonal, -1 beside it) (common practice, no source)
     for (const n of [1, 2, 7, 30]) {
       const a = new Float64Array(n * n);
       for (let i = 0; i < n; i++) {
