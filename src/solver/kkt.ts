@@ -25,7 +25,7 @@
 import {
   type Inertia, type LdltScratch, ldltScratch, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto,
 } from '../linalg/ldlt.ts';
-import type { ClusterProblem } from './problem.ts';
+import { type ClusterProblem, junctionMean } from './problem.ts';
 import * as terms from './wall-terms.ts';
 
 // NOTE: local copies of the kernel's bindings (under some loaders, tsx, every use of an import is a
@@ -381,14 +381,8 @@ export function solveStepInto(
  */
 export function rigidInto(z: Float64Array, junctions: number, rigid: Float64Array): void {
   const t0 = 2 * junctions;
-  let cx = 0;
-  let cy = 0;
-  for (let v = 0; v < junctions; v++) {
-    cx += z[2 * v];
-    cy += z[2 * v + 1];
-  }
-  cx /= junctions;
-  cy /= junctions;
+  const cx = junctionMean(z, junctions, 0);
+  const cy = junctionMean(z, junctions, 1);
   let norm = 0;
   for (let v = 0; v < junctions; v++) norm += (z[2 * v] - cx) ** 2 + (z[2 * v + 1] - cy) ** 2;
   const tn = 1 / Math.sqrt(junctions);

@@ -104,3 +104,10 @@ export function withTensions(problem: ClusterProblem, tensions: Float64Array | n
   for (let k = 0; k < problem.walls; k++) if (tensions[k] !== 1) unit = false;
   return unit ? problem : { ...problem, tensions };
 }
+
+/** The mean of the junctions' x (axis 0) or y (axis 1) coordinates in state z: their centroid. */
+export function junctionMean(z: Float64Array, junctions: number, axis: 0 | 1): number {
+  let sum = 0;
+  for (let v = 0; v < junctions; v++) sum += z[2 * v + axis];
+  return sum / junctions;
+}

@@ -14,7 +14,7 @@
 
 import { canonicalCluster, labellingOrder } from '../maps/canonical.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
-import type { ClusterProblem } from './problem.ts';
+import { type ClusterProblem, junctionMean } from './problem.ts';
 
 /** One symmetry of an arrangement acting on states: junction and wall images, bulge signs. */
 export interface StateSymmetry {
@@ -98,14 +98,8 @@ export function cyclicGroupOf(g: StateSymmetry): StateSymmetry[] {
 export function symmetriseInto(problem: ClusterProblem, group: readonly StateSymmetry[], z: Float64Array, scratch: Float64Array): void {
   const { junctions, walls } = problem;
   const t0 = 2 * junctions;
-  let cx = 0;
-  let cy = 0;
-  for (let v = 0; v < junctions; v++) {
-    cx += z[2 * v];
-    cy += z[2 * v + 1];
-  }
-  cx /= junctions;
-  cy /= junctions;
+  const cx = junctionMean(z, junctions, 0);
+  const cy = junctionMean(z, junctions, 1);
   scratch.fill(0, 0, t0 + walls);
   for (const g of group) {
     const flip = g.reflection ? -1 : 1;
