@@ -16,6 +16,7 @@ import type {
   Atlas, AtlasBoundary, AtlasClass, AtlasOptions, AtlasPlacement, AtlasSample, ClaimAtSample, ClaimSummary,
 } from './types.ts';
 import { UsageError } from '../errors.ts';
+import { tensionPairs } from '../solver/tensions.ts';
 
 /** Samples per block (the unit of work of a worker; fixed, so the atlas does not depend on the workers). */
 export const BLOCK = 32;
@@ -144,7 +145,11 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   }
   const tolerance = options.tolerance ?? 1e-6;
   if (!(tolerance > 0 && tolerance < 1)) throw new UsageError(`Tolerance is ${tolerance} when expected a number in (0, 1).`);
-  const areas = atlasSamples(design);
+  const typing = options.typing;
+  if (typing !== undefined && typing.types.length !== n) {
+    throw new UsageError(`Got ${typing.types.length} types when expected ${n}, one per cell.`);
+  }
+  const areas = atlasSamples(design, typing?.types);
   const count = design.samples;
   const order = compactOrder(areas, n);
   const blocks: AtlasBlock[] = [];
@@ -152,7 +157,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
     const indices = [...order.subarray(start, Math.min(count, start + BLOCK))];
     blocks.push({
       cells: n, indices, areas: indices.map((k) => [...areas.subarray(k * n, (k + 1) * n)]),
-      warmStart: options.warmStart ?? false, newton: options.newton,
+      warmStart: options.warmStart ?? false, newton: options.newton, ...(typing === undefined ? {} : { typing }),
     });
   }
   const solved = await solveAll(blocks, workers, count, options.onProgress);
@@ -190,7 +195,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
       },
       exhaustive: s.exhaustive, starts: { warm: s.warm, other: s.candidates - s.warm },
     };
-    if (n === 4) sample.claim = claimAt(s.ranked, summaryOf);
+    if (n === 4 && typing === undefined) sample.claim = claimAt(s.ranked, summaryOf);
     return sample;
   });
 
@@ -226,7 +231,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   }
   const changes = [...pairs.values()].sort((p, q) => p[2] - q[2] || p[0] - q[0] || p[1] - q[1]);
   const boundaries: AtlasBoundary[] = [];
-  if (n === 4) {
+  if (n === 4 && typing === undefined) {
     const cache = new Map<string, RankPlan>();
     for (const [x, y] of changes.slice(0, maxBoundaries)) {
       const b = locateBoundary(samples[x], samples[y], solved[x].ranked[0], solved[y].ranked[0], tolerance, options, cache, classOf);
@@ -235,7 +240,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   }
 
   let claim: ClaimSummary | null = null;
-  if (n === 4) {
+  if (n === 4 && typing === undefined) {
     let holds = 0;
     let fails = 0;
     let undecided = 0;
@@ -258,10 +263,14 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   }
 
   let largestRatio = 1;
-  for (let k = 0; k < count; k++) largestRatio = Math.max(largestRatio, areas[k * n] / areas[k * n + n - 1]);
+  for (let k = 0; k < count; k++) {
+    const s = areas.subarray(k * n, (k + 1) * n);
+    largestRatio = Math.max(largestRatio, Math.max(...s) / Math.min(...s));
+  }
   const relaxations = solved.reduce((p, s) => p + s.candidates, 0);
   return {
-    cells: n, seed: design.seed, minShare: design.minShare, reachableRatio: reachableRatio(n, design.minShare), largestRatio,
+    cells: n, ...(typing === undefined ? {} : { types: typing.types.map((t) => typing.table.labels[t]), tensions: tensionPairs(typing) }),
+    seed: design.seed, minShare: design.minShare, reachableRatio: reachableRatio(n, design.minShare), largestRatio,
     samples, classes, noWinner: samples.filter((s) => s.winner === null).length,
     smallestMargin: least?.margin ?? null, smallestMarginAt: least?.index ?? null,
     smallestArrangementMargin: leastOther?.otherArrangement?.margin ?? null, smallestArrangementMarginAt: leastOther?.index ?? null,

@@ -11,6 +11,12 @@
 // spacings of uniform order statistics; common practice, no source). Sorting the spacings folds the
 // simplex onto the chamber, preserving uniformity. The floor maps share x to m + (1 - n m) x, so every
 // share is at least m and the largest ratio of two areas reaches (1 - (n - 1) m) / m.
+//
+// With cell types (atlas --types), cells of different types are not interchangeable: a sample stands
+// only for the permutations within each type, so the design samples the chamber of shares ordered
+// within each type (the cells of one type, in the query's order, largest first) and not across types.
+// Sorting the spacings within each type's positions folds the simplex onto that chamber, again
+// preserving uniformity; without types (or with one type) it is the chamber above.
 
 import { UsageError } from '../errors.ts';
 import { mulberry32 } from '../random.ts';
@@ -39,6 +45,14 @@ export interface DesignOptions {
   seed?: number;
   /** Least share of the total area any cell gets, in [0, 1/n). @default DEFAULT_MIN_SHARE */
   minShare?: number;
+}
+
+/** The positions (0-based) of the cells of each type, in order of first appearance; one group of all without types. */
+export function typeGroups(cells: number, types?: readonly number[]): number[][] {
+  if (types === undefined) return [Array.from({ length: cells }, (_, i) => i)];
+  const groups = new Map<number, number[]>();
+  types.forEach((t, i) => groups.set(t, [...(groups.get(t) ?? []), i]));
+  return [...groups.values()];
 }
 
 /**
@@ -83,12 +97,15 @@ function radicalInverse(i: number, b: number): number {
 
 /**
  * The areas of every sample, largest first, summing to n: areas[k * n + i] is the (i+1)-th largest area
- * of sample k. Halton points 1..K, each coordinate shifted by a seeded random amount modulo 1 (a
+ * of sample k (with `types`, one type per cell: largest first within each type's cells). Halton points 1..K, each coordinate shifted by a seeded random amount modulo 1 (a
  * random shift keeps the low discrepancy and makes the seed matter), mapped to the chamber as above.
  * Same options, same numbers. @throws UsageError for bad options.
  */
-export function atlasSamples(options: DesignOptions): Float64Array {
+export function atlasSamples(options: DesignOptions, types?: readonly number[]): Float64Array {
   const { cells: n, samples, seed, minShare } = checkDesign(options);
+  const groups = typeGroups(n, types);
+  const part = new Float64Array(n);
+  const views = groups.map((g) => part.subarray(0, g.length));
   const rng = mulberry32(seed);
   const shift = Array.from({ length: n - 1 }, () => rng());
   const out = new Float64Array(samples * n);
@@ -105,9 +122,14 @@ export function atlasSamples(options: DesignOptions): Float64Array {
     const inner = u.subarray(1, n);
     inner.sort();
     for (let i = 0; i < n; i++) spacing[i] = u[i + 1] - u[i];
-    spacing.sort();
-    // largest first, floored at the least share, scaled to a total of n
-    for (let i = 0; i < n; i++) out[k * n + i] = n * (minShare + (1 - n * minShare) * spacing[n - 1 - i]);
+    // largest first within each group, floored at the least share, scaled to a total of n
+    for (let q = 0; q < groups.length; q++) {
+      const g = groups[q];
+      const sorted = views[q];
+      for (let i = 0; i < g.length; i++) sorted[i] = spacing[g[i]];
+      sorted.sort();
+      for (let i = 0; i < g.length; i++) out[k * n + g[i]] = n * (minShare + (1 - n * minShare) * sorted[g.length - 1 - i]);
+    }
   }
   return out;
 }

@@ -22,7 +22,10 @@ export const ATLAS_VERSION = 1;
 export function atlasJson(atlas: Atlas): string {
   // floats to 12 significant digits, as catalogues are written (the relaxer certifies to about 1e-10)
   const a = roundedWritten(atlas) as Atlas;
-  const query = { cells: a.cells, samples: a.samples.length, seed: a.seed, minShare: a.minShare };
+  const query = {
+    cells: a.cells, samples: a.samples.length, seed: a.seed, minShare: a.minShare,
+    ...(a.types === undefined ? {} : { types: a.types, tensions: a.tensions ?? {} }),
+  };
   const summary = {
     reachableRatio: Number.isFinite(a.reachableRatio) ? a.reachableRatio : null,
     largestRatio: a.largestRatio,

@@ -4,12 +4,14 @@
 // A block is the unit of work of a worker thread; its result depends only on the block (the samples in
 // it and their order), never on the number of workers, so an atlas is the same with one worker or many.
 
-import { areaClasses } from '../catalogue/assign.ts';
+import { areaClasses, orbitRepresentative } from '../catalogue/assign.ts';
+import { cellPermutations, clusterFromCode } from '../maps/cluster.ts';
 import { evaluateCluster } from '../catalogue/evaluate.ts';
-import { type RankPlan, assembleCatalogue, planRanking, unrankedEntries } from '../catalogue/rank.ts';
+import { type RankPlan, assembleCatalogue, planRanking, rankedValue, unrankedEntries } from '../catalogue/rank.ts';
 import type { CatalogueEntry } from '../catalogue/types.ts';
 import type { NewtonOptions } from '../solver/options.ts';
 import type { Equilibrium } from '../solver/result.ts';
+import type { CellTyping } from '../solver/tensions.ts';
 
 /** Samples solved before are searched for the nearest among the last this many (memory stays bounded). */
 const WINDOW = 12;
@@ -23,6 +25,8 @@ export interface AtlasBlock {
   areas: number[][];
   warmStart: boolean;
   newton?: NewtonOptions;
+  /** Cell types and tensions (by area position); absent: every tension 1. */
+  typing?: CellTyping;
 }
 
 /** One certified or failed candidate at a sample, reduced to what the atlas keeps. */
@@ -31,6 +35,7 @@ export interface RankedCandidate {
   id: string;
   /** Index into the sample's areas (largest first) of the area in cell i + 1. */
   assignment: number[];
+  /** Perimeter; with cell types, the energy (sum of tension times length) the ranking is by. */
   perimeter: number;
   index: number;
   zeroModes: number;
@@ -46,13 +51,18 @@ export interface SolvedSample {
   warm: number;
 }
 
+/** The pattern of equal areas (and their types) a plan depends on. */
+function patternOf(classes: ReturnType<typeof areaClasses>): string {
+  return `${classes.multiplicity.join(',')}|${classes.types?.join(',') ?? ''}`;
+}
+
 /** The plan of a ranking at `areas`, from a cached plan with the same pattern of equal areas. */
-export function planAt(areas: readonly number[], cache: Map<string, RankPlan>): RankPlan {
-  const classes = areaClasses([...areas]);
-  const pattern = classes.multiplicity.join(',');
+export function planAt(areas: readonly number[], cache: Map<string, RankPlan>, typing?: CellTyping): RankPlan {
+  const classes = areaClasses([...areas], typing?.types);
+  const pattern = patternOf(classes);
   let base = cache.get(pattern);
   if (base === undefined) {
-    base = planRanking(areas);
+    base = planRanking(areas, { typing });
     cache.set(pattern, base);
   }
   // the arrangements, their candidates and the budget depend on the pattern of equal areas only
@@ -64,12 +74,30 @@ export function planAt(areas: readonly number[], cache: Map<string, RankPlan>): 
   };
 }
 
+/** The symmetries of each arrangement met, by code. */
+const groups = new Map<string, Int32Array[]>();
+
+/**
+ * The smallest image of an assignment (area positions by cell) under its arrangement's symmetries: one key
+ * per class whatever the order of the areas' classes at a sample (with types, the catalogue's
+ * representative follows the areas' sizes across types; untyped, it is already this one).
+ */
+function canonicalAssignment(code: string, assignment: readonly number[]): number[] {
+  let group = groups.get(code);
+  if (group === undefined) {
+    group = cellPermutations(clusterFromCode(code));
+    groups.set(code, group);
+  }
+  return [...orbitRepresentative(Int32Array.from(assignment), group)];
+}
+
 /** The certified entries of a catalogue, in its ranking order, reduced. */
 function rankedOf(entries: readonly CatalogueEntry[]): RankedCandidate[] {
   const out: RankedCandidate[] = [];
   for (const e of entries) {
-    if (e.rank === null || e.perimeter === null) break;
-    out.push({ code: e.code, id: e.id, assignment: e.assignment, perimeter: e.perimeter, index: e.index ?? 0, zeroModes: e.zeroModes ?? 0 });
+    const value = rankedValue(e);
+    if (e.rank === null || value === null) break;
+    out.push({ code: e.code, id: e.id, assignment: canonicalAssignment(e.code, e.assignment), perimeter: value, index: e.index ?? 0, zeroModes: e.zeroModes ?? 0 });
   }
   return out;
 }
@@ -77,9 +105,9 @@ function rankedOf(entries: readonly CatalogueEntry[]): RankedCandidate[] {
 /** Rank every candidate at one sample; `starts` (per task) are the warm starts. */
 export function rankSample(
   areas: readonly number[], cache: Map<string, RankPlan>, newton: NewtonOptions | undefined,
-  starts: ReadonlyMap<string, Equilibrium>[] | null,
+  starts: ReadonlyMap<string, Equilibrium>[] | null, typing?: CellTyping,
 ): { plan: RankPlan; ranked: RankedCandidate[]; exhaustive: boolean; states: Map<string, Equilibrium>[]; warm: number } {
-  const plan = planAt(areas, cache);
+  const plan = planAt(areas, cache, typing);
   let warm = 0;
   const results = plan.tasks.map((t, k) => {
     const task = { ...t, newton, starts: starts?.[k] };
@@ -109,7 +137,7 @@ export function solveBlock(block: AtlasBlock): SolvedSample[] {
   const recent: { areas: number[]; pattern: string; states: Map<string, Equilibrium>[] }[] = [];
   const out: SolvedSample[] = [];
   block.areas.forEach((areas, s) => {
-    const pattern = areaClasses(areas).multiplicity.join(',');
+    const pattern = patternOf(areaClasses(areas, block.typing?.types));
     let from: Map<string, Equilibrium>[] | null = null;
     if (block.warmStart) {
       let best = Infinity;
@@ -121,7 +149,7 @@ export function solveBlock(block: AtlasBlock): SolvedSample[] {
         }
       }
     }
-    const result = rankSample(areas, cache, block.newton, from);
+    const result = rankSample(areas, cache, block.newton, from, block.typing);
     recent.push({ areas, pattern, states: result.states });
     if (recent.length > WINDOW) recent.shift();
     out.push({

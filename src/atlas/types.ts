@@ -1,6 +1,7 @@
 // atlas stage: the results of an atlas, as plain data (what the CLI prints, plots and writes as JSON).
 
 import type { NewtonOptions } from '../solver/options.ts';
+import type { CellTyping } from '../solver/tensions.ts';
 
 /** Options of runAtlas(). */
 export interface AtlasOptions {
@@ -26,6 +27,12 @@ export interface AtlasOptions {
   tolerance?: number;
   /** Options of the relaxer. */
   newton?: NewtonOptions;
+  /**
+   * A type per cell and the walls' tensions: areas are sampled ordered within each type only, every
+   * candidate is relaxed with the tensions and ranked by energy (`perimeter` fields then hold the energy,
+   * and a "rank" is the position in the query's order). No claim and no boundaries are computed then.
+   */
+  typing?: CellTyping;
   /** Called with (samples done, samples planned). */
   onProgress?: (done: number, total: number) => void;
 }
@@ -134,6 +141,9 @@ export interface ClaimSummary {
 /** An atlas: the query, every sample and the summary. */
 export interface Atlas {
   cells: number;
+  /** With cell types: the type of each position and the tensions not 1 ("a:b" -> value); winners by energy. */
+  types?: string[];
+  tensions?: Record<string, number>;
   seed: number;
   minShare: number;
   /** Largest ratio of two areas the design can reach. */

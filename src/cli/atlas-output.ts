@@ -39,8 +39,14 @@ export function atlasTable(a: Atlas): string[] {
       `largest ratio sampled 1:${formatValue(a.largestRatio, 5)}); ${a.candidates} candidates per sample, ` +
       `${a.exhaustive ? 'exhaustive' : 'NOT exhaustive at some samples (local search within rank\'s budget)'}; ` +
       (a.warmShare > 0 ? `${(100 * a.warmShare).toFixed(1)}% of relaxations warm from the nearest solved sample` : 'rank\'s own starts at every sample'),
+    ...(a.types === undefined ? [] : [
+      `types ${a.types.join(' ')} by position (areas largest first within each type); tensions ` +
+        `${Object.keys(a.tensions ?? {}).length > 0 ? Object.entries(a.tensions ?? {}).map(([k, v]) => `${k} ${v}`).join(', ') : 'all 1'} (others 1); winners by energy`,
+    ]),
     '',
-    'winner classes (arrangement + area-rank pattern; rank 1 = largest area, 0 = the outside)',
+    a.types === undefined
+      ? 'winner classes (arrangement + area-rank pattern; rank 1 = largest area, 0 = the outside)'
+      : 'winner classes (arrangement + position pattern; "rank" k = the k-th area of the query\'s order, 0 = the outside; margins in energy)',
   ];
   const rows: string[][] = [['class', 'samples', 'share %', 'id', 'sides by rank', 'walls by rank', 'smallest margin', 'at sample']];
   for (const c of a.classes) {

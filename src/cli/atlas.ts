@@ -9,6 +9,8 @@ import { atlasPlot, atlasTable } from './atlas-output.ts';
 import { type RunFiles, withRunFiles, writeOut } from './output.ts';
 import { wholeNumber } from './parse.ts';
 import { startProgress, type Progress } from './progress.ts';
+import { type TensionText, parseTensions, parseTypes, typingFrom } from './tensions.ts';
+import { UsageError } from '../errors.ts';
 
 function cellsArgument(text: string): number {
   const v = Number(text.trim());
@@ -36,6 +38,8 @@ export function addAtlasCommand(program: Command): void {
     .requiredOption('--samples <k>', 'samples of the simplex of areas', samplesOption)
     .option('--seed <s>', 'seed of the design', wholeNumber(0, 0xffffffff, 'Seed'), 1)
     .option('--min-share <m>', `least share of the total area of any cell (default ${DEFAULT_MIN_SHARE}: ratios beyond 1:9000 reachable)`, shareOption)
+    .option('--types <list>', 'a type label per cell, e.g. a,a,b,b (the outside is "out"): areas sampled in order within each type only', parseTypes)
+    .option('--tension <list>', 'tension of walls between two types, e.g. a:b=1.3,a:out=1 (default 1); winners by energy', parseTensions)
     .option('--workers <n>', `worker threads, at most ${WORKER_LIMIT} (the atlas does not depend on them)`, wholeNumber(1, WORKER_LIMIT, 'Workers'), 1)
     .option('--boundaries <k>', 'most class boundaries located by bisection (four cells)', wholeNumber(0, undefined, 'Boundaries'), 100)
     .option('--warm', 'start each candidate from its equilibrium at the nearest solved sample (measured no faster; off: rank\'s own starts)')
@@ -44,6 +48,10 @@ export function addAtlasCommand(program: Command): void {
     .action(async (cells: number, opts) => {
       // everything is checked before any relaxing
       const design = checkDesign({ cells, samples: opts.samples, seed: opts.seed, minShare: opts.minShare });
+      const typing = typingFrom(opts as { types?: string[]; tension?: TensionText[] }, cells);
+      if (typing !== undefined && opts.plot !== undefined) {
+        throw new UsageError('Option --plot given with --types when expected it without types (the figure reads areas as largest first).');
+      }
       const declare = (files: RunFiles) => ({
         json: typeof opts.json === 'string' ? files.add(opts.json, '--json') : null,
         plot: opts.plot === undefined ? null : files.add(opts.plot, '--plot'),
@@ -51,7 +59,7 @@ export function addAtlasCommand(program: Command): void {
       const text = await withRunFiles([], declare, async (outputs) => {
         let progress: Progress | null = null;
         const atlas = await runAtlas({
-          ...design, workers: opts.workers, warmStart: opts.warm === true, maxBoundaries: opts.boundaries,
+          ...design, workers: opts.workers, warmStart: opts.warm === true, maxBoundaries: opts.boundaries, typing,
           onProgress: (done, total) => {
             progress ??= startProgress('atlas', total);
             progress.update(done);
