@@ -46,6 +46,28 @@ describe('atlasSamples', () => {
     }
   });
 
+  it('atlasSamples with types: one type is the untyped chamber; types a,a,b order the a shares only, the b share evenly spread', () => {
+    const K = 4096;
+    const plain = atlasSamples({ cells: 3, samples: K, seed: 1, minShare: 0 });
+    expect(atlasSamples({ cells: 3, samples: K, seed: 1, minShare: 0 }, [1, 1, 1])).toEqual(plain);
+    const typed = atlasSamples({ cells: 3, samples: K, seed: 1, minShare: 0 }, [1, 1, 2]);
+    // the uniform distribution on the simplex is exchangeable, so the b cell holds the largest of the 3 shares
+    // with probability 1/3 and its share exceeds x with probability (1 - x)^2 (a Dirichlet(1, 1, 1)
+    // marginal is Beta(1, 2); common practice, no source); a low-discrepancy design is within a few 1/K
+    let largest = 0;
+    for (let k = 0; k < K; k++) {
+      expect(typed[3 * k]).toBeGreaterThanOrEqual(typed[3 * k + 1]);
+      expect(typed[3 * k] + typed[3 * k + 1] + typed[3 * k + 2]).toBeCloseTo(3, 12);
+      if (typed[3 * k + 2] > typed[3 * k]) largest++;
+    }
+    expect(Math.abs(largest / K - 1 / 3)).toBeLessThan(0.01);
+    for (const x of [0.1, 0.3, 0.6]) {
+      let above = 0;
+      for (let k = 0; k < K; k++) if (typed[3 * k + 2] / 3 > x) above++;
+      expect(Math.abs(above / K - (1 - x) ** 2)).toBeLessThan(0.01);
+    }
+  });
+
   it('compactOrder is a permutation', () => {
     const a = atlasSamples({ cells: 4, samples: 100 });
     expect([...compactOrder(a, 4)].sort((p, q) => p - q)).toEqual([...Array(100).keys()]);

@@ -51,4 +51,58 @@ describe('lather atlas', () => {
     const again = await lather(['atlas', '3', '--samples', '6', '--json']);
     expect(again.stdout).toBe(readFileSync(json, 'utf8'));
   }, 60000);
+
+  it.each([
+    [['--types', 'a,a'], /^lather: Got 2 types when expected 3, one per area\.\n$/],
+    [['--types', 'a,out,b'], /^lather: Type "out" of a cell is the outside's/],
+    [['--types', 'a,a,b', '--tension', 'a:b=-1'], /^lather: Tension "a:b=-1" is not valid|^lather: Tension a:b is "-1" when expected a positive finite number\.\n$/],
+    [['--types', 'a,a,b', '--tension', 'a:b=x'], /^lather: Tension a:b is "x" when expected a positive finite number\.\n$/],
+    [['--types', 'a,a,b', '--tension', 'a:c=2'], /^lather: Tension type "c" is unknown when expected one of out, a, b\.\n$/],
+    [['--tension', 'a:b=1'], /^lather: Option --tension given without --types/],
+    [['--types', 'a,a,b', '--plot', join(dir, 'typed.svg')], /^lather: Option --plot given with --types/],
+  ])('lather atlas 3 %j refuses with one line naming the value, exit status 2, nothing written', async (args, message) => {
+    const out = join(dir, 'typed-bad.json');
+    const r = await lather(['atlas', '3', '--samples', '2', ...args, '--json', out]);
+    expect(r.status).toBe(2);
+    expect(r.stderr).toMatch(message);
+    expect(r.stdout).toBe('');
+    expect(existsSync(out)).toBe(false);
+  });
+
+  it('lather atlas 3 --types a,a,b --tension ...: each sample\'s winner is the one `rank` finds at its areas, types and tensions', async () => {
+    // source: an independent path, `lather rank` on each sample's areas (the winner by energy, design.md §8)
+    const tension = 'a:b=1.5,b:out=1.2';
+    const json = join(dir, 'typed.json');
+    const r = await lather(['atlas', '3', '--samples', '3', '--types', 'a,a,b', '--tension', tension, '--json', json]);
+    expect(r.status).toBe(0);
+    expect(r.stdout).toContain('types a a b by position (areas largest first within each type); tensions out:b 1.2, a:b 1.5 (others 1); winners by energy');
+    const doc = readAtlas(readFileSync(json, 'utf8')) as { query: Record<string, unknown>; samples: { areas: number[]; winner: { code: string; perimeter: number } }[] };
+    expect(doc.query.types).toEqual(['a', 'a', 'b']);
+    expect(doc.query.tensions).toEqual({ 'out:b': 1.2, 'a:b': 1.5 });
+    // ordered within the type a only: the b cell is the largest at some sample (design.ts)
+    for (const s of doc.samples) expect(s.areas[0]).toBeGreaterThanOrEqual(s.areas[1]);
+    expect(doc.samples.some((s) => s.areas[2] > s.areas[0])).toBe(true);
+    for (const [k, s] of doc.samples.entries()) {
+      const cat = join(dir, `typed-rank-${k}.json`);
+      const q = await lather(['rank', '--areas', s.areas.join(','), '--types', 'a,a,b', '--tension', tension, '--workers', '1', '--out', cat]);
+      expect(q.status).toBe(0);
+      const top = JSON.parse(readFileSync(cat, 'utf8')).entries[0] as { code: string; energy: number; rank: number };
+      expect(top.rank).toBe(1);
+      expect(s.winner.code).toBe(top.code);
+      expect(s.winner.perimeter).toBeCloseTo(top.energy, 9);
+    }
+  }, 120000);
+
+  it('lather atlas 3 with two types and every tension 1 given: the triple bubble wins everywhere, its energy the untyped perimeter', async () => {
+    // source: "Proof of the planar triple bubble conjecture", J. reine angew. Math. 567 (2004): the standard
+    // triple bubble (3.3, sides 333) is the least-perimeter cluster of any three areas; tensions 1 make energy = perimeter
+    const r = await lather(['atlas', '3', '--samples', '3', '--types', 'a,b,b', '--tension', 'a:b=1,a:out=1,b:out=1', '--json']);
+    expect(r.status).toBe(0);
+    const doc = readAtlas(r.stdout) as { summary: { classes: { id: string; sidesByRank: number[]; samples: number }[] }; samples: { areas: number[]; winner: { perimeter: number } }[] };
+    expect(doc.summary.classes.filter((c) => c.samples > 0).map((c) => [c.id, c.sidesByRank.join(''), c.samples])).toEqual([['3.3', '333', 3]]);
+    const s = doc.samples[0];
+    const cat = join(dir, 'untyped-rank.json');
+    expect((await lather(['rank', '--areas', s.areas.join(','), '--workers', '1', '--out', cat])).status).toBe(0);
+    expect(s.winner.perimeter).toBeCloseTo(JSON.parse(readFileSync(cat, 'utf8')).entries[0].perimeter, 9);
+  }, 120000);
 });
