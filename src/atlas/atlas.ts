@@ -16,7 +16,7 @@ import type {
   Atlas, AtlasBoundary, AtlasClass, AtlasOptions, AtlasPlacement, AtlasSample, ClaimAtSample, ClaimSummary,
 } from './types.ts';
 import { UsageError } from '../errors.ts';
-import { tensionPairs } from '../solver/tensions.ts';
+import { tensionPairs, wallTensions } from '../solver/tensions.ts';
 
 /** Samples per block (the unit of work of a worker; fixed, so the atlas does not depend on the workers). */
 export const BLOCK = 32;
@@ -231,7 +231,7 @@ export async function runAtlas(options: AtlasOptions): Promise<Atlas> {
   }
   const changes = [...pairs.values()].sort((p, q) => p[2] - q[2] || p[0] - q[0] || p[1] - q[1]);
   const boundaries: AtlasBoundary[] = [];
-  if (n === 4 && typing === undefined) {
+  if (n === 4) {
     const cache = new Map<string, RankPlan>();
     for (const [x, y] of changes.slice(0, maxBoundaries)) {
       const b = locateBoundary(samples[x], samples[y], solved[x].ranked[0], solved[y].ranked[0], tolerance, options, cache, classOf);
@@ -307,9 +307,16 @@ export function locateBoundary(
   const mapA = clusterFromCode(a.code).map;
   const mapB = clusterFromCode(b.code).map;
   const at = (t: number): number[] => x.areas.map((v, i) => (1 - t) * v + t * y.areas[i]);
+  // with cell types, each candidate relaxed with its walls' tensions (cell i + 1 holds area position assignment[i])
+  const typing = options.typing;
+  const newtonOf = (c: RankedCandidate, map: typeof mapA): AtlasOptions['newton'] => (typing === undefined ? options.newton : {
+    ...options.newton, tensions: wallTensions(map, Int32Array.from(c.assignment, (i) => typing.types[i]), typing.table),
+  });
+  const newtonA = newtonOf(a, mapA);
+  const newtonB = newtonOf(b, mapB);
   const knownA: { t: number; eq: Equilibrium }[] = [];
   const knownB: { t: number; eq: Equilibrium }[] = [];
-  const probe = (c: RankedCandidate, map: typeof mapA, list: typeof knownA, t: number): Equilibrium | null => {
+  const probe = (c: RankedCandidate, map: typeof mapA, newton: AtlasOptions['newton'], list: typeof knownA, t: number): Equilibrium | null => {
     const target = cellAreas(c, at(t));
     let start: Equilibrium | null = null;
     let best = Infinity;
@@ -319,21 +326,21 @@ export function locateBoundary(
         start = k.eq;
       }
     }
-    const eq = start === null ? relax(map, target, options.newton) : relaxFrom(map, target, start, options.newton);
+    const eq = start === null ? relax(map, target, newton) : relaxFrom(map, target, start, newton);
     if (eq.status !== 'ok') return null;
     list.push({ t, eq });
     return eq;
   };
-  const a0 = probe(a, mapA, knownA, 0);
-  const b1 = probe(b, mapB, knownB, 1);
+  const a0 = probe(a, mapA, newtonA, knownA, 0);
+  const b1 = probe(b, mapB, newtonB, knownB, 1);
   if (a0 === null || b1 === null) return null;
   // d(t) = P_a - P_b; a missing candidate loses: d = +inf when a is missing, -inf when b is
   const d = (t: number): number => {
-    const ea = probe(a, mapA, knownA, t);
-    const eb = probe(b, mapB, knownB, t);
+    const ea = probe(a, mapA, newtonA, knownA, t);
+    const eb = probe(b, mapB, newtonB, knownB, t);
     if (ea === null) return Infinity;
     if (eb === null) return -Infinity;
-    return ea.perimeter - eb.perimeter;
+    return ea.energy - eb.energy;
   };
   let lo = 0;
   let hi = 1;
@@ -355,15 +362,15 @@ export function locateBoundary(
   const crossing = Number.isFinite(dLo) && Number.isFinite(dHi);
   const t = crossing && dLo !== dHi ? lo + ((hi - lo) * dLo) / (dLo - dHi) : 0.5 * (lo + hi);
   const point = at(t);
-  const pa = probe(a, mapA, knownA, t);
-  const pb = probe(b, mapB, knownB, t);
-  const check = rankSample(point, cache, options.newton, null);
+  const pa = probe(a, mapA, newtonA, knownA, t);
+  const pb = probe(b, mapB, newtonB, knownB, t);
+  const check = rankSample(point, cache, options.newton, null, typing);
   const top = check.ranked[0];
   const topClass = top === undefined ? -1 : classOf.get(classKey(top)) ?? -1;
   return {
     from: x.index, to: y.index, fromClass: x.winner?.class as number, toClass: y.winner?.class as number,
     t, bracket: [lo, hi], areas: point, kind: crossing ? 'crossing' : 'existence',
-    perimeters: [pa?.perimeter ?? null, pb?.perimeter ?? null],
+    perimeters: [pa?.energy ?? null, pb?.energy ?? null],
     confirmed: topClass === x.winner?.class || topClass === y.winner?.class,
   };
 }

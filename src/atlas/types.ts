@@ -30,7 +30,7 @@ export interface AtlasOptions {
   /**
    * A type per cell and the walls' tensions: areas are sampled ordered within each type only, every
    * candidate is relaxed with the tensions and ranked by energy (`perimeter` fields then hold the energy,
-   * and a "rank" is the position in the query's order). No claim and no boundaries are computed then.
+   * and a "rank" is the position in the query's order; boundaries compare energies). No claim is tested then.
    */
   typing?: CellTyping;
   /** Called with (samples done, samples planned). */

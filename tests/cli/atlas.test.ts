@@ -105,4 +105,21 @@ describe('lather atlas', () => {
     expect((await lather(['rank', '--areas', s.areas.join(','), '--workers', '1', '--out', cat])).status).toBe(0);
     expect(s.winner.perimeter).toBeCloseTo(JSON.parse(readFileSync(cat, 'utf8')).entries[0].perimeter, 9);
   }, 120000);
+
+  it('lather atlas 4 --types a,b,b,b with every tension 1: each located boundary is where the a area equals a b area', async () => {
+    // source: symmetry (exact): with every tension 1 the energy is the perimeter, so where the a cell and a b cell
+    // have equal areas, exchanging them gives the same cluster and the two candidates' energies cross there
+    const r = await lather(['atlas', '4', '--samples', '16', '--types', 'a,b,b,b', '--tension', 'a:b=1', '--json']);
+    expect(r.status).toBe(0);
+    const doc = readAtlas(r.stdout) as { summary: { boundaries: { kind: string; areas: number[]; perimeters: number[]; confirmed: boolean }[]; claim: unknown } };
+    expect(doc.summary.claim).toBe(null);
+    const crossings = doc.summary.boundaries.filter((b) => b.kind === 'crossing');
+    expect(crossings.length).toBeGreaterThan(0);
+    for (const b of crossings) {
+      const gap = Math.min(...b.areas.slice(1).map((v) => Math.abs(v - b.areas[0])));
+      expect(gap).toBeLessThan(1e-5);
+      expect(Math.abs(b.perimeters[0] - b.perimeters[1])).toBeLessThan(1e-5);
+      expect(b.confirmed).toBe(true);
+    }
+  }, 120000);
 });
