@@ -122,4 +122,21 @@ describe('lather atlas', () => {
       expect(b.confirmed).toBe(true);
     }
   }, 120000);
+
+  it('lather atlas 4 --types a,b,b,b --tension a:b=1.1: at each located crossing `rank` finds the two best energies tied at the boundary\'s', async () => {
+    // source: an independent path, `lather rank` at the boundary's areas, types and tension (design.md §8)
+    const r = await lather(['atlas', '4', '--samples', '16', '--types', 'a,b,b,b', '--tension', 'a:b=1.1', '--json']);
+    expect(r.status).toBe(0);
+    const doc = readAtlas(r.stdout) as { summary: { boundaries: { kind: string; areas: number[]; perimeters: number[] }[] } };
+    const crossings = doc.summary.boundaries.filter((b) => b.kind === 'crossing');
+    expect(crossings.length).toBeGreaterThan(0);
+    for (const [k, b] of crossings.entries()) {
+      const cat = join(dir, `boundary-rank-${k}.json`);
+      const q = await lather(['rank', '--areas', b.areas.join(','), '--types', 'a,b,b,b', '--tension', 'a:b=1.1', '--workers', '1', '--out', cat]);
+      expect(q.status).toBe(0);
+      const [first, second] = JSON.parse(readFileSync(cat, 'utf8')).entries as { energy: number }[];
+      for (const e of [first.energy, second.energy]) expect(Math.abs(e - b.perimeters[0])).toBeLessThan(1e-7);
+      expect(Math.abs(b.perimeters[1] - b.perimeters[0])).toBeLessThan(1e-7);
+    }
+  }, 120000);
 });
