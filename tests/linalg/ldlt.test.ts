@@ -2,39 +2,12 @@ import { describe, expect, it } from 'vitest';
 import {
   type Inertia, ldltScratch, pivotedFactorInto, plainFactorInto, plainSolveInto, symmetricSolveInto,
 } from '../../src/linalg/ldlt.ts';
-import { symmetricFactorInto } from './reference.ts';
+import { mulberry32 } from '../../src/random.ts';
+import { symmetricFactorInto, symmetricWithEigenvalues } from './reference.ts';
 
-let seed = 4242;
-function random(): number {
-  // mulberry32 (common practice, no source)
-  seed = (seed + 0x6d2b79f5) | 0;
-  let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-  t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-}
+// seeded draws (src/random.ts)
+const random = mulberry32(4242);
 
-// Q diag(eigenvalues) Q^T with Q a product of random Householder reflections: a symmetric matrix whose
-// eigenvalues, and so inertia, are known by construction.
-function symmetricWithEigenvalues(eigenvalues: number[]): Float64Array {
-  const n = eigenvalues.length;
-  const a = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) a[i * n + i] = eigenvalues[i];
-  for (let h = 0; h < 3; h++) {
-    const v = Array.from({ length: n }, () => random() - 0.5);
-    const vv = v.reduce((s, x) => s + x * x, 0);
-    for (let side = 0; side < 2; side++) {
-      for (let c = 0; c < n; c++) {
-        let dot = 0;
-        for (let i = 0; i < n; i++) dot += v[i] * (side === 0 ? a[i * n + c] : a[c * n + i]);
-        for (let i = 0; i < n; i++) {
-          if (side === 0) a[i * n + c] -= (2 * v[i] * dot) / vv;
-          else a[c * n + i] -= (2 * v[i] * dot) / vv;
-        }
-      }
-    }
-  }
-  return a;
-}
 
 const fresh = (): Inertia => ({ negative: 0, zero: 0, positive: 0 });
 
@@ -54,7 +27,7 @@ describe('symmetric LDL^T', () => {
     for (let trial = 0; trial < 40; trial++) {
       const n = 2 + (trial % 25);
       const eig = Array.from({ length: n }, (_, i) => (i % 3 === 0 ? -1 : 1) * (0.1 + 3 * random()));
-      const a = symmetricWithEigenvalues(eig);
+      const a = symmetricWithEigenvalues(eig, random);
       const f = a.slice();
       const piv = new Int32Array(n);
       const inertia = symmetricFactorInto(f, n, piv, 1e-12, fresh());
@@ -82,7 +55,7 @@ describe('symmetric LDL^T', () => {
     // a KKT matrix [[H, B^T], [B, 0]] with H positive definite (5 x 5) and B of full rank 2 has inertia
     // (5, 2 negative) ("Numerical Optimization", 2nd ed., 2006, §16.1)
     const n = 7;
-    const h = symmetricWithEigenvalues([1, 2, 3, 4, 5]);
+    const h = symmetricWithEigenvalues([1, 2, 3, 4, 5], random);
     const a = new Float64Array(n * n);
     for (let i = 0; i < 5; i++) for (let j = 0; j < 5; j++) a[i * n + j] = h[i * 5 + j];
     for (let r = 5; r < 7; r++) {
@@ -108,7 +81,7 @@ describe('symmetric LDL^T', () => {
 
   it('symmetricFactorInto counts the zero eigenvalues of a singular matrix', () => {
     // reference: eigenvalues fixed by construction, two of them exactly zero
-    const a = symmetricWithEigenvalues([2, -1, 0, 3, 0, -4]);
+    const a = symmetricWithEigenvalues([2, -1, 0, 3, 0, -4], random);
     expect(symmetricFactorInto(a, 6, new Int32Array(6), 1e-10, fresh())).toEqual({ negative: 2, zero: 2, positive: 2 });
   });
 
@@ -119,7 +92,7 @@ describe('symmetric LDL^T', () => {
     // never needs pivoting: every l_ij^2 d_j <= a_ii ("Matrix Computations", 4th ed., 2013, §4.2).
     const n = 80;
     const eig = Array.from({ length: n }, () => 0.5 + 2 * random());
-    const a = symmetricWithEigenvalues(eig);
+    const a = symmetricWithEigenvalues(eig, random);
     const f = a.slice();
     const inertia = fresh();
     expect(plainFactorInto(f, n, new Int32Array(n), 1e-12, inertia, ldltScratch(n))).toBe(true);

@@ -1,38 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { luFactorInto, luSolveInto, symmetricInertia } from './reference.ts';
+import { mulberry32 } from '../../src/random.ts';
+import { luFactorInto, luSolveInto, symmetricInertia, symmetricWithEigenvalues } from './reference.ts';
 
-let seed = 12345;
-function random(): number {
-  // mulberry32 (common practice, no source)
-  seed = (seed + 0x6d2b79f5) | 0;
-  let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-  t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-  return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-}
+// seeded draws (src/random.ts)
+const random = mulberry32(12345);
 
-// Q diag(eigenvalues) Q^T with Q a product of random Householder reflections: a symmetric matrix whose
-// eigenvalues are known by construction (reference values independent of the factorisation).
-function symmetricWithEigenvalues(eigenvalues: number[]): Float64Array {
-  const n = eigenvalues.length;
-  const a = new Float64Array(n * n);
-  for (let i = 0; i < n; i++) a[i * n + i] = eigenvalues[i];
-  for (let h = 0; h < 3; h++) {
-    const v = Array.from({ length: n }, () => random() - 0.5);
-    const vv = v.reduce((s, x) => s + x * x, 0);
-    // a <- (I - 2 v v^T / vv) a (I - 2 v v^T / vv)
-    for (let side = 0; side < 2; side++) {
-      for (let c = 0; c < n; c++) {
-        let dot = 0;
-        for (let i = 0; i < n; i++) dot += v[i] * (side === 0 ? a[i * n + c] : a[c * n + i]);
-        for (let i = 0; i < n; i++) {
-          if (side === 0) a[i * n + c] -= (2 * v[i] * dot) / vv;
-          else a[c * n + i] -= (2 * v[i] * dot) / vv;
-        }
-      }
-    }
-  }
-  return a;
-}
 
 describe('dense factorisations', () => {
   it('luSolveInto solves a random system to rounding accuracy', () => {
@@ -64,7 +36,7 @@ describe('dense factorisations', () => {
       [1e-4, -1e-4, 2, -2, 7, 0.5],
     ];
     for (const eig of cases) {
-      const a = symmetricWithEigenvalues(eig);
+      const a = symmetricWithEigenvalues(eig, random);
       const inertia = symmetricInertia(a, eig.length, 1e-10);
       expect(inertia).toEqual({
         negative: eig.filter((x) => x < 0).length,
