@@ -17,7 +17,7 @@ import { type CellTyping, typingOfPairs, wallTensions } from '../solver/tensions
 import { CatalogueFormatError, MapError, UsageError } from '../errors.ts';
 import { type AreaClasses, areaClasses, labelledAssignmentCount, orbitCount, orbitRepresentative, userIndices } from './assign.ts';
 import { isFiltering, passesFilter } from './filter.ts';
-import { ORDER_DIGITS, rankedValue } from './rank.ts';
+import { ORDER_DIGITS, candidateKey, rankedValue } from './rank.ts';
 import { type Catalogue, type CatalogueEntry, WRITE_DIGITS, roundWritten } from './types.ts';
 
 /**
@@ -137,6 +137,9 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
   // every entry on its own, then its place in the ranking
   let best: number | null = null;
   let previous: number | null = null;
+  // per candidate: its largest stable perimeter so far, and whether a saddle of it came already
+  const stableMost = new Map<string, number>();
+  const saddleSeen = new Set<string>();
   for (let k = 0; k < entries.length; k++) {
     const entry = entries[k];
     try {
@@ -167,8 +170,17 @@ export function checkCatalogueConsistency(catalogue: Catalogue, source: string):
         if (entry.rank !== k + 1) refuse(`rank is ${entry.rank}`, `${k + 1} (certified entries come first, ranked in file order)`);
         // (the energy in a typed catalogue)
         const p = rankedValue(entry)!;
-        // a saddle below the least stable perimeter (rank 1) is placed at it (rank.ts rankingPerimeter)
-        const placed = best !== null && entry.index !== 0 && entries[0].index === 0 ? Math.max(p, best) : p;
+        // a saddle is placed no lower than the least stable perimeter (rank 1) and its own candidate's
+        // stable ones, which come before it (rank.ts rankingPerimeter)
+        const candidate = candidateKey(entry);
+        let placed = p;
+        if (entry.index === 0) {
+          if (saddleSeen.has(candidate)) refuse('index is 0 after a saddle of its candidate', "a candidate's stable equilibria before its saddles");
+          stableMost.set(candidate, Math.max(stableMost.get(candidate) ?? -Infinity, p));
+        } else {
+          saddleSeen.add(candidate);
+          placed = Math.max(p, stableMost.get(candidate) ?? -Infinity, best !== null && entries[0].index === 0 ? best : -Infinity);
+        }
         if (previous !== null && placed < previous * (1 - 10 ** (1 - ORDER_DIGITS) - 2 * WRITE_ROUNDING)) {
           const what = typing === undefined ? 'perimeter' : 'energy';
           refuse(`${what} is ${p}, below rank ${k}'s ${previous}`, `ranks ordered by ${what}`);

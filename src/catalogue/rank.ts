@@ -395,9 +395,10 @@ export function orderPerimeter(p: number): number {
 
 /**
  * Where a certified entry sits in the ranking: its perimeter (orderPerimeter), but a saddle never
- * before the least stable perimeter `floor` (-Infinity when there is no stable entry). A saddle below
- * every stable equilibrium means the search missed the minimiser it descends to; rank 1 stays the
- * least stable equilibrium, the ranking's answer.
+ * before `floor`: the least stable perimeter of the ranking and the largest of its own candidate's
+ * stable equilibria (-Infinity when there are none). A saddle below every stable equilibrium means the
+ * search missed the minimiser it descends to, so rank 1 stays the least stable equilibrium, the
+ * ranking's answer; and a candidate's saddles are listed after its stable equilibria.
  */
 export function rankingPerimeter(e: { perimeter: number | null; energy?: number | null; index: number | null }, floor: number): number {
   const p = orderPerimeter(rankedValue(e) as number);
@@ -414,13 +415,21 @@ const compareText = (a: string, b: string): number => (a < b ? -1 : a > b ? 1 : 
  */
 function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
   const key = (e: CatalogueEntry) => e.assignment.join(',');
-  let floor = Infinity;
-  for (const e of entries) if (e.perimeter !== null && e.index === 0) floor = Math.min(floor, orderPerimeter(rankedValue(e) as number));
-  if (floor === Infinity) floor = -Infinity;
+  // the saddles' floors: the least stable perimeter, and the largest stable one of each candidate
+  let least = Infinity;
+  const stableMost = new Map<string, number>();
+  for (const e of entries) {
+    if (e.perimeter === null || e.index !== 0) continue;
+    const p = orderPerimeter(rankedValue(e) as number);
+    least = Math.min(least, p);
+    stableMost.set(candidateKey(e), Math.max(stableMost.get(candidateKey(e)) ?? -Infinity, p));
+  }
+  if (least === Infinity) least = -Infinity;
+  const floorOf = (e: CatalogueEntry) => Math.max(least, stableMost.get(candidateKey(e)) ?? -Infinity);
   entries.sort((a, b) => {
     if (a.perimeter !== null && b.perimeter !== null) {
-      const pa = rankingPerimeter(a, floor);
-      const pb = rankingPerimeter(b, floor);
+      const pa = rankingPerimeter(a, floorOf(a));
+      const pb = rankingPerimeter(b, floorOf(b));
       if (pa !== pb) return pa - pb;
       if (a.index !== b.index) return a.index! - b.index!;
     } else if (a.perimeter !== null) return -1;

@@ -224,4 +224,29 @@ describe('rank 1 is stable', () => {
     data.entries[1].gapPercent = (100 * (data.entries[1].perimeter - data.entries[0].perimeter)) / data.entries[0].perimeter;
     expect(() => readCatalogue(JSON.stringify(data), 'saddle-first.json')).toThrow(/entry 2 \(rank 2, .*\): index is 0 after rank 1 of index 1 when expected rank 1 stable/);
   });
+
+  it("a candidate's saddles come after its stable equilibria, even below them; a file with a saddle first is refused", () => {
+    // the listing rule (saddles after the stable entries of the same arrangement). A saddle of
+    // 4.10 at equal areas stands in here as a copy of its stable entry relabelled index 1: for the
+    // ranking, a perimeter just below the stable one's; for the reader, the same certified geometry.
+    const plan = planRanking([1, 1, 1, 1]);
+    const entries = plan.tasks.flatMap((t, k) => unrankedEntries(plan, k, evaluateCluster(t)));
+    const stable = entries.find((e) => e.id === '4.10' && e.status === 'ok')!;
+    const saddle = { ...structuredClone(stable), index: 1, reached: 0, perimeter: stable.perimeter! * (1 - 1e-6) };
+    const c = assembleCatalogue(plan, [...entries, saddle]);
+    const at = (index: number) => c.entries.findIndex((e) => e.id === '4.10' && e.index === index);
+    expect(at(0)).toBeGreaterThan(0);
+    expect(at(1)).toBe(at(0) + 1);
+    expect(c.entries[at(1)].gapPercent!).toBeLessThan(c.entries[at(0)].gapPercent!);
+    // the reader: with the saddle's perimeter its geometry's, it reads; with the saddle first, refused
+    c.entries[at(1)].perimeter = stable.perimeter;
+    c.entries[at(1)].gapPercent = c.entries[at(0)].gapPercent;
+    const text = writeCatalogue(c);
+    expect(readCatalogue(text).entries[at(1)].index).toBe(1);
+    const data = JSON.parse(text);
+    const [i, j] = [at(0), at(1)];
+    [data.entries[i], data.entries[j]] = [data.entries[j], data.entries[i]];
+    [data.entries[i].rank, data.entries[j].rank] = [i + 1, j + 1];
+    expect(() => readCatalogue(JSON.stringify(data), 'saddle-before.json')).toThrow(/index is 0 after a saddle of its candidate when expected a candidate's stable equilibria before its saddles/);
+  });
 });
