@@ -124,7 +124,7 @@ export function addRankCommand(program: Command): void {
     .option('--budget <seconds>', 'work allowed before switching from exhaustive ranking to search', parseSeconds('Budget'), 60)
     .option('--workers <n>', 'worker threads (default: the cores available)', parseWorkers)
     .option('--force-workers', `allow --workers above the cores available (up to ${WORKER_LIMIT})`)
-    .option('--seed <n>', 'seed of the search starts (when not exhaustive) and of the perturbed first drawings', wholeNumber(0, undefined, 'Seed'), 1)
+    .option('--seed <n>', 'seed of the search starts (when not exhaustive) and of the perturbed first drawings', wholeNumber(0, 0xffffffff, 'Seed'), 1)
     .option('--starts <k>', `first drawings tried per candidate (barycentric, construction path, then seeded perturbations; default ${DEFAULT_STARTS})`, wholeNumber(1, undefined, 'Starts'))
     .option('--unstable', 'also look for saddles (index >= 1) and list them')
     .option('--large', `allow more than ${RANK_LIMIT} cells`)

@@ -143,6 +143,7 @@ export function addRelaxCommand(program: Command): void {
     .option('--pressures', 'show pressures in the drawing')
     .option('--junctions', 'mark junctions in the drawing')
     .option('--starts <k>', `first drawings tried (barycentric, construction path, then seeded perturbations; default ${DEFAULT_STARTS})`, wholeNumber(1, undefined, 'Starts'))
+    .option('--seed <n>', 'seed of the perturbed first drawings (and of the saddle search)', wholeNumber(0, 0xffffffff, 'Seed'), 1)
     .option('--unstable', 'also look for saddles (index >= 1)')
     .option('--tension-labels', 'label each wall with its tension in the drawing')
     .option('--types <list>', 'a type label per cell in cell order, e.g. a,a,b (the outside is "out")', parseTypes)
@@ -157,7 +158,7 @@ export function addRelaxCommand(program: Command): void {
       const typing = typingFrom(opts as { types?: string[]; tension?: TensionText[] }, cluster.cells);
       const tensions = typing ? wallTensions(cluster.map, typing.types, typing.table) : null;
       const search = await withRunFiles([], (files) => (opts.svg === undefined ? null : files.add(opts.svg, '--svg')), (svg) => {
-        const search = findEquilibria(cluster.map, areas, { starts: opts.starts, unstable: Boolean(opts.unstable), tensions });
+        const search = findEquilibria(cluster.map, areas, { starts: opts.starts, unstable: Boolean(opts.unstable), seed: opts.seed, tensions });
         const typed = typing === undefined ? undefined : { cellTypes: typing.types, typeLabels: typing.table.labels, tensions };
         svg?.write(renderClusterSvg(equilibriumDrawing(cluster, areas, searchAnswer(search), what, typed), {
           pressures: opts.pressures, junctions: opts.junctions, tensions: opts.tensionLabels,

@@ -24,6 +24,19 @@ describe('--starts and --unstable', () => {
     oneLineFailure(await lather(['relax', '2.1', '--starts', bad]), `Starts "${bad}"`);
   });
 
+  it.each([['-1'], ['abc'], ['4294967296']])('rank and relax refuse --seed %j in one line naming it, exit status 2', async (bad) => {
+    oneLineFailure(await lather(['rank', '--areas', '1,1', '--seed', bad]), `Seed ${bad === '4294967296' ? '' : '"'}${bad}`);
+    oneLineFailure(await lather(['relax', '2.1', '--seed', bad]), `Seed ${bad === '4294967296' ? '' : '"'}${bad}`);
+  });
+
+  it('relax --seed: the same seed gives the same bytes; the default is seed 1', async () => {
+    const args = ['relax', '4.5', '--starts', '4', '--json'];
+    const once = await lather([...args, '--seed', '7']);
+    expect(once.status, once.stderr).toBe(0);
+    expect((await lather([...args, '--seed', '7'])).stdout).toBe(once.stdout);
+    expect((await lather([...args, '--seed', '1'])).stdout).toBe((await lather(args)).stdout);
+  });
+
   it('rank --starts 2 --unstable --seed 5 records the search in the catalogue and says it in the table', async () => {
     const out = join(dir, 'searched.json');
     const r = await lather(['rank', '--areas', '1,1,1', '--starts', '2', '--unstable', '--seed', '5', '--workers', '1', '--out', out]);
