@@ -19,14 +19,19 @@ import type { ClusterProblem } from './problem.ts';
 // A wall with |bulge| below STRAIGHT is a segment.
 const STRAIGHT = 1e-9;
 
-/** A lens and its host pieces: the lens's junctions a, b and the host walls ka (at a) and kb (at b). */
+/**
+ * A lens, or a bead, and its host pieces: the junctions a, b where it meets its host wall, the host walls
+ * ka (at a) and kb (at b), and the junctions that move when it slides.
+ */
 export interface LensHost {
-  /** The lens cell (0-based). */
+  /** The lens cell (0-based) found by lensHostOf; -1 for a bead, and for every host of slidingHostsOf. */
   cell: number;
   a: number;
   b: number;
   ka: number;
   kb: number;
+  /** The junctions that slide: the lens's a and b, or every junction of the bead (a and b among them). */
+  moving: number[];
 }
 
 /** The lens whose host piece is wall k (its two junctions a and b, the pieces ka at a and kb at b), or null. */
@@ -54,9 +59,89 @@ export function lensHostOf(problem: ClusterProblem, k: number): LensHost | null 
       if (w !== k1 && w !== k2) kb = w;
     }
     if (kb < 0 || kb === k) continue;
-    return { cell: shared, a: end, b: other, ka: k, kb };
+    return { cell: shared, a: end, b: other, ka: k, kb, moving: [end, other] };
   }
   return null;
+}
+
+/**
+ * The bead whose host piece is wall k, or null: a part of the cluster that meets the rest only at the
+ * two ends a, b of its host pieces ka = k and kb, two walls between the same two regions (in the plane,
+ * two walls whose removal disconnects the cluster's graph lie on the same two faces). Like a lens, a
+ * bead set in one wall slides along the host circle at constant perimeter and areas (a rotation about
+ * the circle's centre keeps the host pieces on the circle and the bead's own walls as they are): a zero
+ * mode. Of the two sides of the cut the smaller one (fewer junctions) is the bead (either side sliding is
+ * the same motion up to a rigid motion of the whole); of several cuts through k, the one with the
+ * smallest bead. (A side of two junctions is a lens, or the outside when it has two sides: the two
+ * outer walls then slide along the circle of two walls between the same two cells.)
+ */
+export function beadHostOf(problem: ClusterProblem, k: number): LensHost | null {
+  let best: LensHost | null = null;
+  for (let kb = 0; kb < problem.walls; kb++) {
+    const host = kb === k ? null : cutHostOf(problem, k, kb);
+    if (host !== null && (best === null || host.moving.length < best.moving.length)) best = host;
+  }
+  return best;
+}
+
+/** The lens (lensHostOf) or else the bead (beadHostOf) whose host piece is wall k, or null. */
+export function slidingHostOf(problem: ClusterProblem, k: number): LensHost | null {
+  return lensHostOf(problem, k) ?? beadHostOf(problem, k);
+}
+
+/**
+ * Every lens and bead of the cluster, once each: for every cut of two walls ka < kb between the same two
+ * regions, its smaller side with those walls as host pieces (`cell` -1: a lens is found here as a side of
+ * two junctions).
+ */
+export function slidingHostsOf(problem: ClusterProblem): LensHost[] {
+  const hosts: LensHost[] = [];
+  for (let ka = 0; ka < problem.walls; ka++) {
+    for (let kb = ka + 1; kb < problem.walls; kb++) {
+      const host = cutHostOf(problem, ka, kb);
+      if (host !== null) hosts.push(host);
+    }
+  }
+  return hosts;
+}
+
+// The smaller side of the cut of walls k and kb (k's end on that side a, kb's b), with k and kb as its
+// host pieces, or null when the two walls do not lie between the same two regions or are no cut.
+function cutHostOf(problem: ClusterProblem, k: number, kb: number): LensHost | null {
+  const { junctions, lefts, rights, starts, ends, wallOf } = problem;
+  if (Math.min(lefts[kb], rights[kb]) !== Math.min(lefts[k], rights[k])) return null;
+  if (Math.max(lefts[kb], rights[kb]) !== Math.max(lefts[k], rights[k])) return null;
+  // the junctions joined to k's start without walls k and kb (a walk with an explicit stack, at most
+  // one entry per junction)
+  const seen = new Uint8Array(junctions);
+  const stack = new Int32Array(junctions);
+  let top = 0;
+  let count = 1;
+  seen[starts[k]] = 1;
+  stack[top++] = starts[k];
+  while (top > 0) {
+    const v = stack[--top];
+    for (let i = 0; i < 3; i++) {
+      const w = wallOf[3 * v + i];
+      if (w === k || w === kb) continue;
+      const u = starts[w] === v ? ends[w] : starts[w];
+      if (seen[u] === 0) {
+        seen[u] = 1;
+        count++;
+        stack[top++] = u;
+      }
+    }
+  }
+  // Are k and kb no cut? (k's end is reached the other way round)
+  if (seen[ends[k]] === 1) return null;
+  // the smaller side slides: the seen one (k's start's side) or the rest (k's end's side)
+  const side = 2 * count <= junctions ? 1 : 0;
+  const a = side === 1 ? starts[k] : ends[k];
+  const b = seen[starts[kb]] === side ? starts[kb] : ends[kb];
+  if (a === b) return null;
+  const moving: number[] = [];
+  for (let v = 0; v < junctions; v++) if (seen[v] === side) moving.push(v);
+  return { cell: -1, a, b, ka: k, kb, moving };
 }
 
 // Centre (cx, cy) and radius of wall k's circle at state z, or null for a straight wall.
@@ -147,18 +232,27 @@ export function slideLensInto(problem: ClusterProblem, z: Float64Array, host: Le
  * Returns false, leaving z unchanged, when the lens is not set in one wall.
  */
 export function centreLensInto(problem: ClusterProblem, z: Float64Array, host: LensHost, trial: Float64Array): boolean {
+  return placeLensInto(problem, z, host, 0.5, trial);
+}
+
+/**
+ * Move the lens (or bead) of `host` in state z (normalised units) along its host circle to where its
+ * piece ka is `share` (0..1) of the two host pieces' length, in place (`trial` is scratch of z's
+ * length). Returns false, leaving z unchanged, when the lens is not set in one wall.
+ */
+export function placeLensInto(problem: ClusterProblem, z: Float64Array, host: LensHost, share: number, trial: Float64Array): boolean {
   const { ka, kb } = host;
   const circle = hostCircleOf(problem, z, host);
   if (circle === undefined) return false;
-  // the move that evens the pieces: half the difference of their lengths, in the direction (tried both
-  // ways) that evens them
-  const shift = 0.5 * (lengthOf(problem, z, kb) - lengthOf(problem, z, ka));
+  // the move that gives the pieces their shares, in the direction (tried both ways) that does (at share
+  // 1/2 half the difference of their lengths: each product by 1/2 is exact)
+  const shift = share * lengthOf(problem, z, kb) - (1 - share) * lengthOf(problem, z, ka);
   let sign = 1;
   let best = Infinity;
   for (const trySign of [1, -1]) {
     trial.set(z);
     moveLensInto(problem, trial, host, circle, trySign * shift);
-    const d = Math.abs(lengthOf(problem, trial, ka) - lengthOf(problem, trial, kb));
+    const d = Math.abs((1 - share) * lengthOf(problem, trial, ka) - share * lengthOf(problem, trial, kb));
     if (d < best) {
       best = d;
       sign = trySign;
@@ -178,7 +272,7 @@ function moveLensInto(
     const ux = z[2 * b] - z[2 * a];
     const uy = z[2 * b + 1] - z[2 * a + 1];
     const u = Math.hypot(ux, uy);
-    for (const v of [a, b]) {
+    for (const v of host.moving) {
       z[2 * v] += (s * ux) / u;
       z[2 * v + 1] += (s * uy) / u;
     }
@@ -187,7 +281,7 @@ function moveLensInto(
   const phi = s / circle.r;
   const cos = Math.cos(phi);
   const sin = Math.sin(phi);
-  for (const v of [a, b]) {
+  for (const v of host.moving) {
     const x = z[2 * v] - circle.cx;
     const y = z[2 * v + 1] - circle.cy;
     z[2 * v] = circle.cx + cos * x - sin * y;
