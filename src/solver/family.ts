@@ -13,6 +13,12 @@
 // distance) that makes ka and kb equally long; the lens's own walls keep their bulges (a rigid motion
 // keeps the angle between chord and tangent), and the host pieces take the bulges of the arcs of the
 // same circle between their new ends.
+//
+// A bead is the same with more inside: a part of the cluster joined to the rest only through two walls
+// ka, kb between the same two regions (a cut of two walls); rotating the whole part about the circle
+// of ka and kb slides it as a lens slides (beadHostOf; the part's every junction moves, its walls keep
+// their bulges). The outside with two sides is such a cut too: its two walls slide along the circle of
+// the two walls between the cells inside them.
 
 import type { ClusterProblem } from './problem.ts';
 
@@ -92,9 +98,12 @@ export function slidingHostOf(problem: ClusterProblem, k: number): LensHost | nu
 /**
  * Every lens and bead of the cluster, once each: for every cut of two walls ka < kb between the same two
  * regions, its smaller side with those walls as host pieces (`cell` -1: a lens is found here as a side of
- * two junctions).
+ * two junctions). The same array on every call for a topology: not to be changed.
  */
 export function slidingHostsOf(problem: ClusterProblem): LensHost[] {
+  // (topology only: kept per topology, the wallOf array that a problem and its copies with tensions share)
+  const cached = SLIDING_HOSTS.get(problem.wallOf);
+  if (cached !== undefined) return cached;
   const hosts: LensHost[] = [];
   for (let ka = 0; ka < problem.walls; ka++) {
     for (let kb = ka + 1; kb < problem.walls; kb++) {
@@ -102,8 +111,10 @@ export function slidingHostsOf(problem: ClusterProblem): LensHost[] {
       if (host !== null) hosts.push(host);
     }
   }
+  SLIDING_HOSTS.set(problem.wallOf, hosts);
   return hosts;
 }
+const SLIDING_HOSTS = new WeakMap<Int32Array, LensHost[]>();
 
 // The smaller side of the cut of walls k and kb (k's end on that side a, kb's b), with k and kb as its
 // host pieces, or null when the two walls do not lie between the same two regions or are no cut.

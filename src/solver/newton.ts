@@ -630,8 +630,8 @@ function secondStart(
 /**
  * Relax from a previous answer's geometry `start` (for instance at nearby areas), in the caller's
  * units, its pressures as the first pressure estimates; falls back to a cold relax() when that does
- * not end at a certified equilibrium (and returns the warm answer if the cold one is not certified
- * either).
+ * not end at a certified equilibrium, then (when the arrangement has lenses or beads) to the start with
+ * each of them moved to the middle of its range, and returns the warm answer if none is certified.
  * @throws UsageError as relax() does, or when start's arrays do not fit the map.
  */
 export function relaxFrom(
