@@ -7,6 +7,11 @@
 /** Below this |bulge| a wall is taken as a straight segment: its sagitta is under 2.5e-8 of its chord. */
 export const STRAIGHT_BULGE = 1e-7;
 
+// A major arc's missing part lies within its sagitta of the chord line; a point is judged on the
+// wall's side of the chord to within at most MISSING_SHARE of that sagitta (a wall near a full circle
+// round a small cell has a missing part far thinner than any absolute tolerance).
+const MISSING_SHARE = 1e-3;
+
 // The intersections of two supporting curves (at most 2).
 const PX = new Float64Array(2);
 const PY = new Float64Array(2);
@@ -206,8 +211,8 @@ function otherMeetInto(
 }
 
 // Whether a point of wall k's supporting curve lies on the wall itself: strictly on the bulge side of
-// the chord for an arc (the arc bulging left of a->b is the part of its circle left of the chord line),
-// between the end points for a segment.
+// the chord for an arc (the arc bulging left of a->b is the part of its circle left of the chord line;
+// `near`, or less for a major arc, MISSING_SHARE), between the end points for a segment.
 function onWall(
   k: number, x: number, y: number, coords: Float64Array, bulges: Float64Array, lower: Int32Array,
   twins: Int32Array, near: number,
@@ -226,7 +231,13 @@ function onWall(
     return s * c > -near && (s - 1) * c < near && off < near;
   }
   const side = (dx * (y - ay) - dy * (x - ax)) / c;
-  return t > 0 ? side > -near : side < near;
+  let within = near;
+  if (Math.abs(t) > Math.PI / 2) {
+    // (the missing part of a major arc: a minor arc of bulge pi - |t| on the other side)
+    const missing = MISSING_SHARE * 0.5 * c * Math.tan(0.5 * (Math.PI - Math.abs(t)));
+    if (missing < within) within = missing;
+  }
+  return t > 0 ? side > -within : side < within;
 }
 
 function nearSharedJunction(

@@ -1,12 +1,14 @@
 // arcs stage: the order in which the three walls of a junction leave it in a drawing.
 
+import { bulgeOf } from './arc.ts';
+
 const TAU = 2 * Math.PI;
 
 /**
  * Whether the three arcs at junction v leave it in the counter-clockwise order of its darts 3v, 3v + 1,
  * 3v + 2 (the map's order). coords holds the junction coordinates (coords[2w], coords[2w + 1]);
  * bulges[offset + wallOf[e]] is the bulge of dart e's wall along its lower dart (a dart e > twins[e]
- * runs against it, bulge negated). Each arc leaves along its chord turned by its bulge (arcs/arc.ts).
+ * runs against it, bulge negated), a bulge coordinate (arcs/arc.ts). Each arc leaves along its chord turned by its bulge (arcs/arc.ts).
  */
 export function junctionInOrder(
   twins: Int32Array, wallOf: Int32Array, coords: Float64Array, bulges: Float64Array, offset: number, v: number,
@@ -16,7 +18,7 @@ export function junctionInOrder(
   for (let i = 0; i < 3; i++) {
     const e = 3 * v + i;
     const w = (twins[e] / 3) | 0;
-    const t = e < twins[e] ? bulges[offset + wallOf[e]] : -bulges[offset + wallOf[e]];
+    const t = e < twins[e] ? bulgeOf(bulges[offset + wallOf[e]]) : -bulgeOf(bulges[offset + wallOf[e]]);
     const angle = Math.atan2(coords[2 * w + 1] - coords[2 * v + 1], coords[2 * w] - coords[2 * v]) + t;
     if (i === 0) {
       first = angle;

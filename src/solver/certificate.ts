@@ -4,7 +4,9 @@
 // kernel, its areas, its junction-order test). Every wall is rebuilt as a circle (centre, radius) or a
 // segment, tangents are taken perpendicular to the radius (and the order at a junction from them),
 // segment areas as sector minus triangle, and the cells are walked through map.faceDarts; only the
-// search for crossing walls, a plane-geometry question, is shared (arcs/crossings.ts). The
+// search for crossing walls, a plane-geometry question, is shared (arcs/crossings.ts), and so is the
+// reading of a bulge coordinate (arcs/arc.ts bulgeOf and bulgeSine: a wall near a full circle may come
+// with its gap to a full circle held to full precision, so its radius c / (2 |sin t|) keeps it). The
 // certificate's entries are dimensionless: areas relative to each cell's target, curvatures relative to
 // |pressure difference| + 1/sqrt(A), A the smaller target area of the wall's two sides. With wall
 // tensions s (design.md §8) the junction law is the Neumann triangle, sum s_i u_i = 0 (measured relative
@@ -12,6 +14,7 @@
 // |pressure difference| + s/sqrt(A)).
 
 import type { CubicMap } from '../maps/cubic-map.ts';
+import { bulgeOf, bulgeSine } from '../arcs/arc.ts';
 import { STRAIGHT_BULGE, countCrossings } from '../arcs/crossings.ts';
 
 /** What checkEquilibrium measured. Lengths and areas are in the caller's units. */
@@ -43,7 +46,10 @@ export interface Certificate {
 export interface EquilibriumGeometry {
   /** Junction coordinates, length 2V. */
   coords: Float64Array;
-  /** Wall bulges, length E (positive into the face left of the wall's lower dart). */
+  /**
+   * Wall bulges, length E (positive into the face left of the wall's lower dart), as bulge coordinates
+   * (arcs/arc.ts: a plain bulge t, or a wall near a full circle in the gap form).
+   */
   bulges: Float64Array;
   /** Cell pressures, length n. */
   pressures: Float64Array;
@@ -59,6 +65,8 @@ let CX = new Float64Array(0);
 let CY = new Float64Array(0);
 let RADIUS = new Float64Array(0);
 let BOX = new Float64Array(0);
+let BULGE = new Float64Array(0);
+let SINE = new Float64Array(0);
 const ANGLE = new Float64Array(3);
 
 function scratchFor(walls: number): void {
@@ -69,6 +77,8 @@ function scratchFor(walls: number): void {
   CY = new Float64Array(walls);
   RADIUS = new Float64Array(walls);
   BOX = new Float64Array(4 * walls);
+  BULGE = new Float64Array(walls);
+  SINE = new Float64Array(walls);
 }
 
 /** Whether every residual entry is at most `tolerance` and the drawing is a valid cluster drawing. */
@@ -119,7 +129,7 @@ function checkAtScale(
   let total = 0;
   for (let i = 0; i < cells; i++) total += areas[i];
   const unit = Math.sqrt(total / cells);
-  const { coords, bulges, pressures } = result;
+  const { coords, pressures } = result;
   // Is it the circle? One wall, no junctions: perimeter 2 pi R, area pi R^2, curvature 1/R.
   if (twins.length === 0) {
     const p = pressures[0];
@@ -147,6 +157,14 @@ function checkAtScale(
     }
   }
 
+  // each wall's bulge t and sin t from its coordinate
+  const bulges = BULGE;
+  const sines = SINE;
+  for (let k = 0; k < walls; k++) {
+    bulges[k] = bulgeOf(result.bulges[k]);
+    sines[k] = bulgeSine(result.bulges[k]);
+  }
+
   // rebuild each wall: centre, radius, arc length, signed curvature
   const cx = CX;
   const cy = CY;
@@ -164,10 +182,10 @@ function checkAtScale(
     let length = chord;
     // (a nearly straight wall: the circle's curvature 2 sin t / c, which its centre, too far away, would
     // give with a rounding error of the order of t)
-    let curvature = chord > 0 ? (2 * Math.sin(t)) / chord : 0;
+    let curvature = chord > 0 ? (2 * sines[k]) / chord : 0;
     if (Math.abs(t) >= STRAIGHT) {
       // centre on the chord's perpendicular bisector, at (c/2) cot t on the side opposite the left normal
-      const cot = Math.cos(t) / Math.sin(t);
+      const cot = Math.cos(t) / sines[k];
       cx[k] = coords[2 * a] + 0.5 * dx + 0.5 * cot * dy;
       cy[k] = coords[2 * a + 1] + 0.5 * dy - 0.5 * cot * dx;
       radius[k] = Math.hypot(coords[2 * a] - cx[k], coords[2 * a + 1] - cy[k]);
@@ -243,11 +261,12 @@ function checkAtScale(
       const b = (twins[e] / 3) | 0;
       const k = wallOf[e];
       const t = e < twins[e] ? bulges[k] : -bulges[k];
+      const sine = e < twins[e] ? sines[k] : -sines[k];
       // compensated summation of the two terms: keep the low-order part lost by each addition
       for (let term = 0; term < 2; term++) {
         const x = term === 0
           ? 0.5 * (coords[2 * a] * coords[2 * b + 1] - coords[2 * a + 1] * coords[2 * b])
-          : -segmentArea(Math.hypot(coords[2 * b] - coords[2 * a], coords[2 * b + 1] - coords[2 * a + 1]), t);
+          : -segmentArea(Math.hypot(coords[2 * b] - coords[2 * a], coords[2 * b + 1] - coords[2 * a + 1]), t, sine);
         const s = sum + x;
         comp += Math.abs(sum) >= Math.abs(x) ? sum - s + x : x - s + sum;
         sum = s;
@@ -278,12 +297,12 @@ function finite(c: Certificate): Certificate {
   return c;
 }
 
-// Signed area between a chord of length c and the arc of bulge t: sector minus triangle of the circle,
-// R^2 (theta - sin theta) / 2 with central angle theta = 2|t| and R = c / (2 |sin t|); a series for
-// small theta, where the difference cancels (theta - sin theta = theta^3/6 - theta^5/120 + ...).
-function segmentArea(c: number, t: number): number {
+// Signed area between a chord of length c and the arc of bulge t (sine = sin t): sector minus triangle
+// of the circle, R^2 (theta - sin theta) / 2 with central angle theta = 2|t| and R = c / (2 |sin t|); a
+// series for small theta, where the difference cancels (theta - sin theta = theta^3/6 - theta^5/120 + ...).
+function segmentArea(c: number, t: number, sine: number): number {
   const theta = 2 * Math.abs(t);
-  const r = c / (2 * Math.abs(Math.sin(t)));
+  const r = c / (2 * Math.abs(sine));
   if (t === 0) return 0;
   let diff: number;
   if (theta < 0.05) {

@@ -18,15 +18,17 @@
 // A cell drawn far too small asks for at most GROW times its area per step, so it grows in a few steps
 // rather than one wild one; the pressures in the Hessian are kept to a physical bound for the same
 // reason. A step may not shrink any chord below SHRINK times its length, so a wall on its way to zero
-// is seen going there (the T1 collapse the arrangement wants) instead of being jumped across.
+// is seen going there (the T1 collapse the arrangement wants) instead of being jumped across, nor any
+// wall's gap to a full circle below SHRINK times its gap (a relative bound, good at every scale).
 
 import { factorStepInto, removeRigidInto, rigidInto, solveStepInto, stepCurvature } from './kkt.ts';
+import { bulgeSine } from '../arcs/arc.ts';
 import type { ResolvedNewtonOptions } from './options.ts';
 import { fitPressuresInto, meritOf, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
 import { type CollapseWatch, collapseSeen, collapseWatch, relativeLengthOf, shortestWallOf, tangentResidualOf } from './verdict.ts';
 import * as terms from './wall-terms.ts';
-import { perimeterInto } from './wall-terms.ts';
+import { advanceInto, gapsHold, perimeterInto } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** Why a descent stopped ('settled': at an equilibrium to within the tolerances, or at the rounding floor). */
@@ -94,8 +96,6 @@ const ROUNDING = 1e-13;
 const GOOD = 0.75;
 const LOWER = 0.5;
 const POOR = 0.25;
-// Bulges are kept inside (-pi, pi) by this margin.
-const BULGE_LIMIT = Math.PI - 1e-6;
 
 /**
  * The state of one descent: the iterate z (and the trial state of a step, the two swapped when a step
@@ -239,7 +239,7 @@ export function prepareStep(problem: ClusterProblem, ws: Workspace, s: DescentSt
   let curvatureMax = 0;
   for (let k = 0; k < walls; k++) {
     const c = cache[k * WALL_STRIDE + W_C];
-    const v = c > 0 ? Math.abs(2 * Math.sin(z[t0 + k])) / c : 0;
+    const v = c > 0 ? Math.abs(2 * bulgeSine(z[t0 + k])) / c : 0;
     if (v > curvatureMax) curvatureMax = v;
   }
   const cap = PRESSURE_CAP * (cells * curvatureMax + 1);
@@ -340,8 +340,8 @@ export function attemptStep(
     return 'raised';
   }
   const predicted = alpha * slope + 0.5 * alpha * alpha * curvature;
-  for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
-  if (admissible(problem, trial, chords)) {
+  advanceInto(problem, z, alpha, direction, trial);
+  if (admissible(problem, z, trial, chords)) {
     s.perimeterTrial = perimeterInto(problem, trial, trialCache, trialAreas);
     s.phiTrial = meritOf(s.perimeterTrial, trialAreas, targets, lambda, kappa, cells);
     const change = s.phiTrial - phiHere;
@@ -467,11 +467,10 @@ export function violationOf(areas: Float64Array, targets: Float64Array, cells: n
   return worst;
 }
 
-function admissible(problem: ClusterProblem, trial: Float64Array, chords: Float64Array): boolean {
-  const { walls, starts, ends, junctions } = problem;
-  const t0 = 2 * junctions;
+function admissible(problem: ClusterProblem, z: Float64Array, trial: Float64Array, chords: Float64Array): boolean {
+  const { walls, starts, ends } = problem;
+  if (!gapsHold(problem, z, trial, SHRINK)) return false;
   for (let k = 0; k < walls; k++) {
-    if (!(Math.abs(trial[t0 + k]) < BULGE_LIMIT)) return false;
     const a = 2 * starts[k];
     const b = 2 * ends[k];
     const dx = trial[b] - trial[a];

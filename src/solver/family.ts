@@ -20,6 +20,7 @@
 // their bulges). The outside with two sides is such a cut too: its two walls slide along the circle of
 // the two walls between the cells inside them.
 
+import { bulgeOf, bulgeSine } from '../arcs/arc.ts';
 import type { ClusterProblem } from './problem.ts';
 
 // A wall with |bulge| below STRAIGHT is a segment.
@@ -157,13 +158,14 @@ function cutHostOf(problem: ClusterProblem, k: number, kb: number): LensHost | n
 
 // Centre (cx, cy) and radius of wall k's circle at state z, or null for a straight wall.
 function circleOf(problem: ClusterProblem, z: Float64Array, k: number): Circle | null {
-  const t = z[2 * problem.junctions + k];
+  const x = z[2 * problem.junctions + k];
+  const t = bulgeOf(x);
   if (Math.abs(t) < STRAIGHT) return null;
   const a = 2 * problem.starts[k];
   const b = 2 * problem.ends[k];
   const dx = z[b] - z[a];
   const dy = z[b + 1] - z[a + 1];
-  const cot = Math.cos(t) / Math.sin(t);
+  const cot = Math.cos(t) / bulgeSine(x);
   const cx = z[a] + 0.5 * dx + 0.5 * cot * dy;
   const cy = z[a + 1] + 0.5 * dy - 0.5 * cot * dx;
   return { cx, cy, r: Math.hypot(z[a] - cx, z[a + 1] - cy) };
@@ -194,11 +196,11 @@ function circleThrough(z: Float64Array, u: number, v: number, w: number): Circle
 
 // Arc length of wall k at state z.
 function lengthOf(problem: ClusterProblem, z: Float64Array, k: number): number {
-  const t = z[2 * problem.junctions + k];
+  const x = z[2 * problem.junctions + k];
   const a = 2 * problem.starts[k];
   const b = 2 * problem.ends[k];
   const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
-  return Math.abs(t) < STRAIGHT ? c : (c * t) / Math.sin(t);
+  return Math.abs(x) < STRAIGHT ? c : (c * bulgeOf(x)) / bulgeSine(x);
 }
 
 type Circle = { cx: number; cy: number; r: number };
@@ -306,6 +308,7 @@ function moveLensInto(
 function bulgeOnCircle(problem: ClusterProblem, z: Float64Array, k: number, circle: Circle): number {
   const t0 = 2 * problem.junctions;
   const old = z[t0 + k];
+  const was = bulgeOf(old);
   const a = 2 * problem.starts[k];
   const b = 2 * problem.ends[k];
   const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
@@ -315,7 +318,7 @@ function bulgeOnCircle(problem: ClusterProblem, z: Float64Array, k: number, circ
   for (const t of [half, Math.PI - half, -half, -(Math.PI - half)]) {
     z[t0 + k] = t;
     const o = circleOf(problem, z, k);
-    const e = o === null ? Infinity : Math.hypot(o.cx - circle.cx, o.cy - circle.cy) + Math.abs(t - old) * 1e-3 * circle.r;
+    const e = o === null ? Infinity : Math.hypot(o.cx - circle.cx, o.cy - circle.cy) + Math.abs(t - was) * 1e-3 * circle.r;
     if (e < error) {
       error = e;
       best = t;

@@ -21,13 +21,14 @@
 // It ends when the tangent gradient is small and the curvature shows as many negative directions as
 // modes followed; the caller polishes with Newton's method (roots.ts) and certifies (newton.ts).
 
+import { gapOf } from '../arcs/arc.ts';
 import { choleskySolveInto } from '../linalg/cholesky.ts';
 import { symmetricEigenInto } from '../linalg/symmetric-eigen.ts';
 import { rigidInto } from './kkt.ts';
 import { fitPressuresInto, penaltyGradientInto } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
 import { ordersHold } from './verdict.ts';
-import { perimeterInto } from './wall-terms.ts';
+import { advanceInto, advanceWall, perimeterInto } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** How a mode following ended. */
@@ -52,7 +53,8 @@ const ZERO_CURVATURE = 1e-6;
 // Tangent gradient at which Newton's method takes over, and area error (relative) asked with it.
 const HANDOVER = 1e-3;
 const AREA_HANDOVER = 1e-6;
-// No chord may shrink below SHRINK of its length in one step; bulges stay BULGE_MARGIN inside +-pi.
+// No chord may shrink below SHRINK of its length in one step; bulges stay BULGE_MARGIN inside +-pi (a
+// wall's gap to a full circle, arcs/arc.ts gapOf, at least BULGE_MARGIN).
 const SHRINK = 0.5;
 const BULGE_MARGIN = 1e-3;
 
@@ -203,7 +205,7 @@ export function followModes(
     let accepted = false;
     for (; trust >= LEAST_TRUST && !accepted; ) {
       const scale = Math.min(1, trust / norm);
-      for (let j = 0; j < dim; j++) z[j] = s.base[j] + scale * s.step[j];
+      advanceInto(problem, s.base, scale, s.step, z);
       if (project !== null) project(z);
       restoreAreas(problem, ws, s);
       if (drawn(problem, z, s.base)) accepted = true;
@@ -266,11 +268,13 @@ function hessianInto(problem: ClusterProblem, ws: Workspace, s: Scratch): void {
   const { z } = ws;
   for (let j = 0; j < dim; j++) {
     const kept = z[j];
-    z[j] = kept + DIFFERENCE;
+    const wall = j - 2 * problem.junctions;
+    z[j] = wall >= 0 ? advanceWall(problem, z, wall, DIFFERENCE) : kept + DIFFERENCE;
     perimeterInto(problem, z, ws.cache, ws.areas);
     penaltyGradientInto(problem, z, ws.targets, ws.mult, 0, ws.cache, ws.areas, ws.mu, ws.grad, ws.lengthGrad);
     s.plus.set(ws.grad.subarray(0, dim));
-    z[j] = kept - DIFFERENCE;
+    z[j] = kept;
+    z[j] = wall >= 0 ? advanceWall(problem, z, wall, -DIFFERENCE) : kept - DIFFERENCE;
     perimeterInto(problem, z, ws.cache, ws.areas);
     penaltyGradientInto(problem, z, ws.targets, ws.mult, 0, ws.cache, ws.areas, ws.mu, ws.grad, ws.lengthGrad);
     z[j] = kept;
@@ -342,7 +346,7 @@ function restoreAreas(problem: ClusterProblem, ws: Workspace, s: Scratch): void 
     for (let f = 0; f < cells; f++) {
       const w = s.errors[f];
       const o = f * dim;
-      for (let i = 0; i < dim; i++) z[i] += w * ws.cellGrad[o + i];
+      advanceInto(problem, z, w, ws.cellGrad, z, o);
     }
   }
 }
@@ -357,7 +361,7 @@ function drawn(problem: ClusterProblem, z: Float64Array, base: Float64Array): bo
     const b = 2 * ends[k];
     const now = (z[b] - z[a]) ** 2 + (z[b + 1] - z[a + 1]) ** 2;
     const was = (base[b] - base[a]) ** 2 + (base[b + 1] - base[a + 1]) ** 2;
-    if (!(Math.abs(z[t0 + k]) < Math.PI - BULGE_MARGIN) || !(now >= SHRINK * SHRINK * was)) return false;
+    if (!(gapOf(z[t0 + k]) > BULGE_MARGIN) || !(now >= SHRINK * SHRINK * was)) return false;
   }
   return ordersHold(problem, z);
 }

@@ -19,7 +19,7 @@ import { UsageError } from '../errors.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { embedClusterInto } from '../arcs/embed.ts';
 import { drawByInsertionInto } from '../arcs/insertion.ts';
-import { BULGE_FACTORS, G, bulgeFactorsInto } from '../arcs/arc.ts';
+import { BULGE_FACTORS, G, bulgeFactorsInto, bulgeOf, bulgeSine } from '../arcs/arc.ts';
 import { type Certificate, certificatePasses, checkEquilibrium } from './certificate.ts';
 import { descend, violationOf } from './descent.ts';
 import { findRootFrom } from './roots.ts';
@@ -500,7 +500,7 @@ function perturbInto(problem: ClusterProblem, z: Float64Array, next: () => numbe
     z[2 * v + 1] += r * Math.sin(angle);
   }
   for (let k = 0; k < walls; k++) {
-    const t = z[t0 + k] + amplitude * (2 * next() - 1);
+    const t = bulgeOf(z[t0 + k]) + amplitude * (2 * next() - 1);
     z[t0 + k] = Math.max(-BULGE_EDGE, Math.min(BULGE_EDGE, t));
   }
 }
@@ -726,7 +726,7 @@ function answerOf(
   const curvatures = block.subarray(p0 + cells, p0 + cells + walls);
   const achieved = block.subarray(p0 + cells + walls);
   for (let i = 0; i < t0; i++) coords[i] = z[i] * unit;
-  for (let k = 0; k < walls; k++) bulges[k] = z[t0 + k];
+  for (let k = 0; k < walls; k++) bulges[k] = bulgeOf(z[t0 + k]);
   // a settled answer's pressures are read off its curvatures (pressures.ts), not the descent's estimates
   if (attempt.verdict.status === 'ok') curvaturePressuresInto(problem, z, ws.targets, z.subarray(p0, p0 + cells), ws.normal, ws.pivots, ws.row, ws.lambda);
   for (let f = 0; f < cells; f++) pressures[f] = z[p0 + f] / unit;
@@ -740,7 +740,7 @@ function answerOf(
     const length = c * FACTORS[G] * unit;
     perimeter += length;
     if (tensions !== null) energy += tensions[k] * length;
-    curvatures[k] = c > 0 ? (2 * Math.sin(z[t0 + k])) / (c * unit) : 0;
+    curvatures[k] = c > 0 ? (2 * bulgeSine(z[t0 + k])) / (c * unit) : 0;
   }
   perimeterInto(problem, z, ws.cache, achieved);
   for (let f = 0; f < cells; f++) achieved[f] *= unit * unit;
@@ -756,7 +756,8 @@ function answerOf(
     areas: achieved,
     iterations: attempt.iterations,
     restarts,
-    certificate: checkEquilibrium(map, areas, { coords, bulges, pressures }, tensions),
+    // (checked at the bulge coordinates of z: a wall near a full circle keeps its gap to full precision)
+    certificate: checkEquilibrium(map, areas, { coords, bulges: z.subarray(t0, p0), pressures }, tensions),
     index: null,
     zeroModes: null,
     collapsingWall: verdict.wall,

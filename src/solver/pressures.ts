@@ -12,6 +12,7 @@
 // (n x n, positive definite: every cell is connected to the outside through walls) are solved by
 // Cholesky's method.
 
+import { bulgeSine } from '../arcs/arc.ts';
 import { choleskyInto, choleskySolveInto } from '../linalg/cholesky.ts';
 import type { ClusterProblem } from './problem.ts';
 
@@ -34,7 +35,7 @@ export function curvaturePressuresInto(
     const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
     // s kappa = p_r - p_l (s the wall's tension)
     const s = tensions === null ? 1 : tensions[k];
-    const kappa = (s * (2 * Math.sin(z[t0 + k]))) / c;
+    const kappa = (s * (2 * bulgeSine(z[t0 + k]))) / c;
     const l = lefts[k];
     const r = rights[k];
     const local = Math.min(l >= 0 ? targets[l] : Infinity, r >= 0 ? targets[r] : Infinity);

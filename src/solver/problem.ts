@@ -2,8 +2,9 @@
 //
 // The state z of a relaxation is one Float64Array of length size = 2V + E + n, in this order:
 //   z[2v], z[2v + 1]   junction v's coordinates,
-//   z[2V + k]          wall k's bulge (see arcs/arc.ts; positive bulges into the face LEFT of wall k's
-//                      lower dart, the face map.faceOf[e] of the dart e < twins[e]),
+//   z[2V + k]          wall k's bulge coordinate (arcs/arc.ts: the bulge t itself, or for a wall near a
+//                      full circle its gap to one held to full precision; positive bulges into the face
+//                      LEFT of wall k's lower dart, the face map.faceOf[e] of the dart e < twins[e]),
 //   z[2V + E + f - 1]  cell f's pressure (the outside, face 0, has pressure 0 and no unknown).
 
 import type { CubicMap } from '../maps/cubic-map.ts';

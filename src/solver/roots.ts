@@ -16,7 +16,7 @@ import type { ResolvedNewtonOptions } from './options.ts';
 import { fitPressuresInto, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
 import { ordersHold } from './verdict.ts';
-import { perimeterInto } from './wall-terms.ts';
+import { advanceInto, gapsHold, perimeterInto } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** How a root search ended: converged (the equations hold to the tolerance or at the rounding floor) or not. */
@@ -35,10 +35,9 @@ const REGULAR = 1e-9;
 // Sufficient decrease of the merit (a fraction of the predicted one) and the most halvings of a step.
 const ARMIJO = 1e-4;
 const HALVINGS = 30;
-// A step may not shrink any chord below SHRINK of its length, nor bring a bulge within BULGE_MARGIN of
-// +-pi (the drawing would cease to be one of this arrangement).
+// A step may not shrink any chord below SHRINK of its length, nor any wall's gap to a full circle below
+// SHRINK of its gap (the drawing would cease to be one of this arrangement).
 const SHRINK = 0.1;
-const BULGE_MARGIN = 1e-6;
 // Equations within CLOSE that stop improving for FLOOR_STEPS steps are at the rounding floor.
 const CLOSE = 1e-9;
 const FLOOR_STEPS = 3;
@@ -111,9 +110,9 @@ export function findRootFrom(problem: ClusterProblem, ws: Workspace, opt: Resolv
     const inOrder = ordersHold(problem, z);
     let accepted = false;
     for (let h = 0; h < HALVINGS && !accepted; h++, alpha *= 0.5) {
-      for (let i = 0; i < dim; i++) trial[i] = z[i] + alpha * direction[i];
+      advanceInto(problem, z, alpha, direction, trial);
       for (let f = 0; f < cells; f++) trial[dim + f] = z[dim + f] + alpha * (lambda[f] - z[dim + f]);
-      if (!stillDrawn(problem, trial, chords, inOrder)) continue;
+      if (!stillDrawn(problem, z, trial, chords, inOrder)) continue;
       const next = meritAt(problem, ws, trial);
       if (next <= (1 - 2 * ARMIJO * alpha) * merit || (next <= merit && merit <= CLOSE * CLOSE)) {
         z.set(trial);
@@ -155,16 +154,16 @@ function meritAt(problem: ClusterProblem, ws: Workspace, s: Float64Array): numbe
   return Number.isNaN(sum) ? Infinity : sum;
 }
 
-// Is the trial state s still a drawing of the arrangement: every bulge inside (-pi, pi), no chord shrunk
-// below SHRINK of its length (floors: SHRINK^2 chord^2 at the step's start), the junctions in order
-// (when `order`)?
-function stillDrawn(problem: ClusterProblem, s: Float64Array, floors: Float64Array, order: boolean): boolean {
-  const { walls, starts, ends, junctions } = problem;
-  const t0 = 2 * junctions;
+// Is the trial state s still a drawing of the arrangement: no wall's gap to a full circle below SHRINK
+// of its gap at the step's start z, no chord shrunk below SHRINK of its length (floors: SHRINK^2
+// chord^2 at the step's start), the junctions in order (when `order`)?
+function stillDrawn(problem: ClusterProblem, z: Float64Array, s: Float64Array, floors: Float64Array, order: boolean): boolean {
+  const { walls, starts, ends } = problem;
+  if (!gapsHold(problem, z, s, SHRINK)) return false;
   for (let k = 0; k < walls; k++) {
     const a = 2 * starts[k];
     const b = 2 * ends[k];
-    if (!(Math.abs(s[t0 + k]) < Math.PI - BULGE_MARGIN) || (s[b] - s[a]) ** 2 + (s[b + 1] - s[a + 1]) ** 2 < floors[k]) return false;
+    if ((s[b] - s[a]) ** 2 + (s[b + 1] - s[a + 1]) ** 2 < floors[k]) return false;
   }
   return !order || ordersHold(problem, s);
 }

@@ -12,6 +12,7 @@
 // areas the equations are equivariant under every symmetry, so a search kept on the symmetric drawings
 // ends at a symmetric equilibrium: typically a saddle, whose unstable directions break the symmetry.
 
+import { NEAR_OFFSET, coordinateOfGap, gapOf } from '../arcs/arc.ts';
 import { canonicalCluster, labellingOrder } from '../maps/canonical.ts';
 import type { CubicMap } from '../maps/cubic-map.ts';
 import { type ClusterProblem, junctionMean } from './problem.ts';
@@ -126,12 +127,29 @@ export function symmetriseInto(problem: ClusterProblem, group: readonly StateSym
       scratch[2 * v] += c * u + s * q;
       scratch[2 * v + 1] += flip * (-s * u + c * q);
     }
-    for (let k = 0; k < walls; k++) scratch[t0 + k] += g.sign[k] * z[t0 + g.wall[k]];
   }
   const inv = 1 / group.length;
   for (let v = 0; v < junctions; v++) {
     z[2 * v] = cx + inv * scratch[2 * v];
     z[2 * v + 1] = cy + inv * scratch[2 * v + 1];
   }
-  for (let k = 0; k < walls; k++) z[t0 + k] = inv * scratch[t0 + k];
+  // the bulges: their mean, or near a full circle (a coordinate in the gap form, arcs/arc.ts) the mean
+  // of their gaps
+  for (let k = 0; k < walls; k++) {
+    let sum = 0;
+    let near = false;
+    for (const g of group) {
+      const x = z[t0 + g.wall[k]];
+      sum += g.sign[k] * x;
+      if (Math.abs(x) > NEAR_OFFSET) near = true;
+    }
+    if (!near) {
+      scratch[t0 + k] = inv * sum;
+      continue;
+    }
+    let gaps = 0;
+    for (const g of group) gaps += gapOf(z[t0 + g.wall[k]]);
+    scratch[t0 + k] = coordinateOfGap(sum > 0 ? 1 : -1, inv * gaps);
+  }
+  for (let k = 0; k < walls; k++) z[t0 + k] = scratch[t0 + k];
 }

@@ -1,6 +1,7 @@
 // solver stage: the geometric tests that name how a relaxation ends (collapses, watched during the descent
 // and named at its end; order at junctions).
 
+import { bulgeOf } from '../arcs/arc.ts';
 import { junctionInOrder } from '../arcs/junction.ts';
 import type { ClusterProblem } from './problem.ts';
 import type { EquilibriumStatus } from './result.ts';
@@ -44,7 +45,7 @@ export function tangentResidualOf(problem: ClusterProblem, z: Float64Array): num
     for (let i = 0; i < 3; i++) {
       const e = 3 * v + i;
       const w = (twins[e] / 3) | 0;
-      const t = e < twins[e] ? z[t0 + wallOf[e]] : -z[t0 + wallOf[e]];
+      const t = e < twins[e] ? bulgeOf(z[t0 + wallOf[e]]) : -bulgeOf(z[t0 + wallOf[e]]);
       const dx = z[2 * w] - z[2 * v];
       const dy = z[2 * w + 1] - z[2 * v + 1];
       const c = Math.hypot(dx, dy);

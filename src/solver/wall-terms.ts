@@ -1,6 +1,18 @@
 // solver stage: the per-wall kernel of the relaxer, the one place a wall's length and area terms are
 // derived.
 //
+// Two forms of wall. A wall's variable (its entry of z, the unknown the steps move) is its bulge t
+// (form 0) unless its coordinate in z is in the gap form of arcs/arc.ts (within GAP_IN of a full
+// circle, form 1), where it is its signed curvature k = 2 sin t / c: at a fixed bulge a junction's move
+// changes a nearly full circle's radius, and so its area, 1/(pi - |t|) times as much as its own size,
+// which makes the junctions' equations cancel terms of that size (a rounding of 1e-16 becomes 1e-10 at a
+// gap of 1e-6), while at a fixed curvature every term is of the wall's own size. The form is read off
+// z (arc.NEAR_OFFSET), so every pass that takes the record's derivatives (penalty.ts, kkt.ts,
+// descent.ts, roots.ts, stability.ts, modes.ts) works in the variables of z without knowing; a step is
+// applied by advanceInto, the one place that moves a wall's coordinate by its variable. Form 0 is
+// below; form 1 (circleRecordInto) fills the same record in its variables, and W_SU, W_SM with the two
+// parts of its segment's Hessian that form 0 does not have.
+//
 // Per wall k from junction a to junction b with bulge t and chord d = b - a, c = |d| (arcs/arc.ts):
 //   length           L = c g(t)
 //   area to its left Q = (a x b)/2 - c^2 h(t)   (added to the cell on the left of its lower dart,
@@ -69,8 +81,17 @@ export const W_LYT = 16;
 export const W_LTT = 17;
 /** Offset of the area's gradient (an area block, offsets Q_AX .. Q_T, as areaGradientInto writes it). */
 export const W_Q = 18;
+/**
+ * Offset of the wall's form: 0 when its variable is its bulge t, 1 when it is its signed curvature k (a
+ * wall near a full circle, its coordinate in z in the gap form of arcs/arc.ts; see the file header).
+ */
+export const W_FORM = 23;
+/** Offset of d2S/dc2 - (dS/dc)/c (the chord block's part along u of the segment's Hessian; 0 for form 0). */
+export const W_SU = 24;
+/** Offset of d2S/dc dk (the mixed part of the segment's Hessian of form 1). */
+export const W_SM = 25;
 /** Length of one wall's record. */
-export const WALL_STRIDE = 23;
+export const WALL_STRIDE = 26;
 
 /** Offset of dQ/da_x = b_y/2 + 2 h d_x in an area block. */
 export const Q_AX = 0;
@@ -110,6 +131,12 @@ const H = arc.H;
 const H1 = arc.H1;
 const H2 = arc.H2;
 const FACTORS = new Float64Array(arc.BULGE_FACTORS);
+const advance = arc.advanceBulge;
+const advanceCurvature = arc.advanceCurvature;
+const gap = arc.gapOf;
+const NEAR = arc.NEAR_OFFSET;
+const circleInto = arc.circleFactorsInto;
+const CIRCLE = new Float64Array(arc.CIRCLE_FACTORS);
 
 /**
  * The one pass per iterate: fills `cache` (WALL_STRIDE numbers per wall) at the geometry of z and the
@@ -134,11 +161,24 @@ export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: F
     const dy = by - ay;
     const c2 = dx * dx + dy * dy;
     const c = Math.sqrt(c2);
+    const w = k * WALL_STRIDE;
+    // (a wall near a full circle: its variable is its curvature)
+    if (Math.abs(z[t0 + k]) > NEAR && c > 0) {
+      length += circleRecordInto(problem, z, k, a, b, c, cache);
+      const q = 0.5 * (ax * by - ay * bx) - CIRCLE[arc.CS];
+      const l = lefts[k];
+      const r = rights[k];
+      if (l >= 0) areas[l] += q;
+      if (r >= 0) areas[r] -= q;
+      continue;
+    }
     factorsInto(z[t0 + k], f);
     const g = f[G];
     const g1 = f[G1];
     const h = f[H];
-    const w = k * WALL_STRIDE;
+    cache[w + W_FORM] = 0;
+    cache[w + W_SU] = 0;
+    cache[w + W_SM] = 0;
     cache[w + W_DX] = dx;
     cache[w + W_DY] = dy;
     cache[w + W_C] = c;
@@ -174,6 +214,103 @@ export function perimeterInto(problem: ClusterProblem, z: Float64Array, cache: F
   return length;
 }
 
+/**
+ * The state z advanced by alpha d into out over the geometry (2V + E entries, d read from d[o]):
+ * junctions moved by alpha d, each wall's variable by alpha d in its form (the record's W_FORM at z):
+ * a bulge t by arc.advanceBulge, a curvature (a wall near a full circle) by arc.advanceCurvature at
+ * the wall's new chord; a wall carried past a full circle, or out of its form's reach, is NaN. out
+ * may be z.
+ */
+export function advanceInto(
+  problem: ClusterProblem, z: Float64Array, alpha: number, d: Float64Array, out: Float64Array, o = 0,
+): void {
+  const { junctions, walls, starts, ends } = problem;
+  const t0 = 2 * junctions;
+  // (the walls first, while z's junctions are there to give their chords before and after: out may be z)
+  for (let k = 0; k < walls; k++) {
+    const x = z[t0 + k];
+    const step = alpha * d[o + t0 + k];
+    if (!(Math.abs(x) > NEAR)) {
+      out[t0 + k] = advance(x, step);
+      continue;
+    }
+    const a = 2 * starts[k];
+    const b = 2 * ends[k];
+    const dx = z[b] + alpha * d[o + b] - (z[a] + alpha * d[o + a]);
+    const dy = z[b + 1] + alpha * d[o + b + 1] - (z[a + 1] + alpha * d[o + a + 1]);
+    out[t0 + k] = advanceCurvature(x, Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]), Math.hypot(dx, dy), step);
+  }
+  for (let i = 0; i < t0; i++) out[i] = z[i] + alpha * d[o + i];
+}
+
+/** The coordinate of wall k of state z moved by dv in its own variable (its bulge, or its curvature near a full circle), the junctions kept. */
+export function advanceWall(problem: ClusterProblem, z: Float64Array, k: number, dv: number): number {
+  const x = z[2 * problem.junctions + k];
+  if (!(Math.abs(x) > NEAR)) return advance(x, dv);
+  const a = 2 * problem.starts[k];
+  const b = 2 * problem.ends[k];
+  const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
+  return advanceCurvature(x, c, c, dv);
+}
+
+/**
+ * Whether the bulge coordinates of state `trial` keep every wall's gap to a full circle (arc.gapOf) at
+ * least SHRINK times its gap in `z`, the state a step starts from: a relative bound, as a step's on a
+ * chord, at every scale (a gap of 1e-6 and one of 1e-1 alike), and no wall carried past a full circle.
+ */
+export function gapsHold(problem: ClusterProblem, z: Float64Array, trial: Float64Array, shrink: number): boolean {
+  const t0 = 2 * problem.junctions;
+  for (let i = t0, end = t0 + problem.walls; i < end; i++) if (!(gap(trial[i]) >= shrink * gap(z[i]))) return false;
+  return true;
+}
+
+// The record of wall k of form 1 (near a full circle, its variable its signed curvature k; chord c > 0
+// from junction offset a to b in z), from arc.circleFactorsInto: the chord terms of the length at a
+// fixed curvature, L_c u and L_cc u u^T + (L_c / c) (I - u u^T), and of the segment S: h stands for
+// S_c / (2c) (so that the area's gradient in the chord is 2 h d as in form 0), h' for S_k / c^2, h'' for
+// S_kk / c^2, with the parts of S's Hessian that form 0 does not have in W_SU and W_SM. Returns the
+// wall's weighted length s L; leaves S in CIRCLE.
+function circleRecordInto(
+  problem: ClusterProblem, z: Float64Array, k: number, a: number, b: number, c: number, cache: Float64Array,
+): number {
+  const x = z[2 * problem.junctions + k];
+  const w = k * WALL_STRIDE;
+  const o = CIRCLE;
+  circleInto(gap(x), x > 0 ? 1 : -1, c, o);
+  const f = FACTORS;
+  factorsInto(x, f);
+  const dx = z[b] - z[a];
+  const dy = z[b + 1] - z[a + 1];
+  const ux = dx / c;
+  const uy = dy / c;
+  const s = problem.tensions === null ? 1 : problem.tensions[k];
+  const lc = o[arc.CL_C];
+  const lcc = o[arc.CL_CC];
+  cache[w + W_DX] = dx;
+  cache[w + W_DY] = dy;
+  cache[w + W_C] = c;
+  cache[w + W_G] = o[arc.CL] / c;
+  cache[w + W_G1] = f[G1];
+  cache[w + W_G2] = f[G2];
+  cache[w + W_H] = o[arc.CS_C] / (2 * c);
+  cache[w + W_H1] = o[arc.CS_K] / (c * c);
+  cache[w + W_H2] = o[arc.CS_KK] / (c * c);
+  cache[w + W_LX] = s * lc * ux;
+  cache[w + W_LY] = s * lc * uy;
+  cache[w + W_LT] = s * o[arc.CL_K];
+  cache[w + W_LXX] = s * (lcc * ux * ux + (lc / c) * (1 - ux * ux));
+  cache[w + W_LXY] = s * (lcc - lc / c) * ux * uy;
+  cache[w + W_LYY] = s * (lcc * uy * uy + (lc / c) * (1 - uy * uy));
+  cache[w + W_LXT] = s * o[arc.CL_CK] * ux;
+  cache[w + W_LYT] = s * o[arc.CL_CK] * uy;
+  cache[w + W_LTT] = s * o[arc.CL_KK];
+  cache[w + W_FORM] = 1;
+  cache[w + W_SU] = o[arc.CS_CC] - o[arc.CS_C] / c;
+  cache[w + W_SM] = o[arc.CS_CK];
+  areaGradientInto(cache, k, z, a, b, cache, w + W_Q);
+  return s * o[arc.CL];
+}
+
 /** The pressure jump D = p_l - p_r across wall k for cell pressures p (the outside's is 0). */
 export function jumpOf(problem: ClusterProblem, k: number, p: Float64Array): number {
   const l = problem.lefts[k];
@@ -197,6 +334,18 @@ export function wallHessianInto(cache: Float64Array, k: number, jump: number, ou
   out[o + M_XT] = cache[w + W_LXT] + 2 * jump * h1 * cache[w + W_DX];
   out[o + M_YT] = cache[w + W_LYT] + 2 * jump * h1 * cache[w + W_DY];
   out[o + M_TT] = cache[w + W_LTT] + jump * c * c * cache[w + W_H2];
+  // (form 1: the segment's Hessian in the chord has a part along u, and its mixed part is its own)
+  if (cache[w + W_FORM] !== 0) {
+    const ux = cache[w + W_DX] / c;
+    const uy = cache[w + W_DY] / c;
+    const su = jump * cache[w + W_SU];
+    const sm = jump * cache[w + W_SM];
+    out[o + M_XX] += su * ux * ux;
+    out[o + M_XY] += su * ux * uy;
+    out[o + M_YY] += su * uy * uy;
+    out[o + M_XT] = cache[w + W_LXT] + sm * ux;
+    out[o + M_YT] = cache[w + W_LYT] + sm * uy;
+  }
 }
 
 /**
