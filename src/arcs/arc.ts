@@ -48,10 +48,16 @@ export const BULGE_FACTORS = 6;
 
 /** A bulge coordinate beyond +-NEAR_OFFSET holds its gap s = pi - |t| as |x| = NEAR_OFFSET + 1/s. */
 export const NEAR_OFFSET = 4;
-/** A plain coordinate whose gap to a full circle falls below GAP_IN takes the gap form (advanceBulge). */
-export const GAP_IN = 2 ** -16;
+/**
+ * A plain coordinate whose gap to a full circle falls below GAP_IN takes the gap form (advanceBulge).
+ * Above it a plain bulge keeps the gap to ulp(pi) / GAP_IN = 4e-12 of itself, and the solver's
+ * junction equations at a fixed bulge cancel terms at most pi / GAP_IN times their size (rounding
+ * 6e-12, under the certificate's 1e-10); lower thresholds (2^-16 and below, measured) leave walls with
+ * gaps near 1e-5 to the plain bulge, where a triple bubble at areas 1, 1, 1e10 no longer converged.
+ */
+export const GAP_IN = 2 ** -13;
 /** A gap-form coordinate whose gap grows above GAP_OUT becomes plain again. */
-export const GAP_OUT = 2 ** -15;
+export const GAP_OUT = 2 ** -12;
 
 /** The bulge t in (-pi, pi) of coordinate x (see the file header). */
 export function bulgeOf(x: number): number {

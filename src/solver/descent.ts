@@ -28,7 +28,7 @@ import { fitPressuresInto, meritOf, penaltyGradientInto, scaledGradientMax } fro
 import type { ClusterProblem } from './problem.ts';
 import { type CollapseWatch, collapseSeen, collapseWatch, relativeLengthOf, shortestWallOf, tangentResidualOf } from './verdict.ts';
 import * as terms from './wall-terms.ts';
-import { advanceInto, gapsHold, perimeterInto } from './wall-terms.ts';
+import { advanceInto, gapsHold, perimeterInto, wallTurn } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** Why a descent stopped ('settled': at an equilibrium to within the tolerances, or at the rounding floor). */
@@ -329,7 +329,7 @@ export function attemptStep(
   const slope = gd - lr - kappa * q;
   const curvature = dbd - tau * dd + kappa * rr;
   const phiHere = meritOf(s.perimeter, areas, targets, lambda, kappa, cells);
-  const alpha = stepLength(problem, opt, direction) * s.cut;
+  const alpha = stepLength(problem, opt, z, direction) * s.cut;
   if (!Number.isFinite(alpha) || !Number.isFinite(slope)) return 'failed';
   const noise = ROUNDING * (Math.abs(phiHere) + 1);
   // Is the model flat to the rounding of Phi? Then Phi cannot judge the step: Newton's step is
@@ -364,13 +364,13 @@ export function attemptStep(
 }
 
 // The longest step along d the caps allow: bulges by maxBulgeStep, junction moves by maxMoveStep.
-function stepLength(problem: ClusterProblem, opt: ResolvedNewtonOptions, direction: Float64Array): number {
+function stepLength(problem: ClusterProblem, opt: ResolvedNewtonOptions, z: Float64Array, direction: Float64Array): number {
   const { junctions, walls } = problem;
   const t0 = 2 * junctions;
   let alpha = 1;
   let dt = 0;
-  for (let i = t0; i < t0 + walls; i++) {
-    const v = Math.abs(direction[i]);
+  for (let k = 0; k < walls; k++) {
+    const v = wallTurn(problem, z, k, direction[t0 + k]);
     if (v > dt) dt = v;
   }
   if (dt > opt.maxBulgeStep) alpha = opt.maxBulgeStep / dt;

@@ -16,7 +16,7 @@ import type { ResolvedNewtonOptions } from './options.ts';
 import { fitPressuresInto, penaltyGradientInto, scaledGradientMax } from './penalty.ts';
 import type { ClusterProblem } from './problem.ts';
 import { ordersHold } from './verdict.ts';
-import { advanceInto, gapsHold, perimeterInto } from './wall-terms.ts';
+import { advanceInto, gapsHold, perimeterInto, wallTurn } from './wall-terms.ts';
 import type { Workspace } from './workspace.ts';
 
 /** How a root search ended: converged (the equations hold to the tolerance or at the rounding floor) or not. */
@@ -97,7 +97,7 @@ export function findRootFrom(problem: ClusterProblem, ws: Workspace, opt: Resolv
     let largestMove = 0;
     let largestTurn = 0;
     for (let i = 0; i < t0; i++) largestMove = Math.max(largestMove, Math.abs(direction[i]));
-    for (let k = 0; k < walls; k++) largestTurn = Math.max(largestTurn, Math.abs(direction[t0 + k]));
+    for (let k = 0; k < walls; k++) largestTurn = Math.max(largestTurn, wallTurn(problem, z, k, direction[t0 + k]));
     let alpha = Math.min(1, opt.maxMoveStep / largestMove, opt.maxBulgeStep / largestTurn);
     if (!(alpha > 0)) return { converged: false, iterations, index };
     for (let k = 0; k < walls; k++) {

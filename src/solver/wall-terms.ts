@@ -243,6 +243,20 @@ export function advanceInto(
   for (let i = 0; i < t0; i++) out[i] = z[i] + alpha * d[o + i];
 }
 
+/**
+ * How far a step dv of wall k's variable at state z turns the wall, for the relaxer's cap on a step
+ * (options.maxBulgeStep): |dv| radians for a bulge, |dv| / |k| (a relative change of curvature) for a
+ * wall near a full circle, whose curvature k may be of any size.
+ */
+export function wallTurn(problem: ClusterProblem, z: Float64Array, k: number, dv: number): number {
+  const x = z[2 * problem.junctions + k];
+  if (!(Math.abs(x) > NEAR)) return Math.abs(dv);
+  const a = 2 * problem.starts[k];
+  const b = 2 * problem.ends[k];
+  const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
+  return Math.abs(dv) / ((2 * Math.sin(gap(x))) / c);
+}
+
 /** The coordinate of wall k of state z moved by dv in its own variable (its bulge, or its curvature near a full circle), the junctions kept. */
 export function advanceWall(problem: ClusterProblem, z: Float64Array, k: number, dv: number): number {
   const x = z[2 * problem.junctions + k];

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import {
-  BULGE_FACTORS, G, G1, G2, H, H1, H2, arcLength, bulgeFactorsInto, bulgeThrough, segmentFactor,
+  BULGE_FACTORS, CIRCLE_FACTORS, CL, CL_C, CL_CC, CL_CK, CL_K, CL_KK, CS, CS_C, CS_CC, CS_CK, CS_K, CS_KK, G, G1, G2,
+  GAP_IN, GAP_OUT, H, H1, H2, NEAR_OFFSET, advanceBulge, advanceCurvature, arcLength, bulgeFactorsInto, bulgeForSegmentFactor,
+  bulgeOf, bulgeSine, bulgeThrough, circleFactorsInto, coordinateOfGap, gapOf, segmentFactor,
 } from '../../src/arcs/arc.ts';
 import {
   ARC_ARGS, ARC_HESSIAN, arcCurvatureInto, arcEndAngleInto, arcLengthInto, arcSegmentAreaInto, arcStartAngleInto, wrapAngle,
@@ -132,5 +134,127 @@ describe('arcLength', () => {
     for (const t of [-2.9, -1, -0.3, 1e-9, 0.999, 1.001, 2.5]) {
       expect(arcLength(0.3, -0.2, 1.1, 0.7, t)).toBe(arcLengthInto(0.3, -0.2, 1.1, 0.7, t));
     }
+  });
+});
+
+describe('bulge coordinates near a full circle', () => {
+  // the gap form of a bulge t = sign (pi - s): |x| = NEAR_OFFSET + 1/s
+  const near = (sign: number, gap: number): number => sign * (NEAR_OFFSET + 1 / gap);
+
+  it('the gap form gives g, h and their derivatives as the closed forms in the gap s = pi - |t|, to full relative precision', () => {
+    // source: L = c t / sin t and S = (c^2/4)(t - sin t cos t)/sin^2 t with t = pi - s, sin t = sin s,
+    // cos t = -cos s (school geometry, no source); the closed forms in s have no cancellation
+    const f = new Float64Array(BULGE_FACTORS);
+    for (const s of [1e-2, 1e-6, 1e-12, 1e-100]) {
+      for (const sign of [1, -1]) {
+        bulgeFactorsInto(near(sign, s), f);
+        const g = (Math.PI - s) / Math.sin(s);
+        const h = (Math.PI - s + Math.sin(s) * Math.cos(s)) / (4 * Math.sin(s) ** 2);
+        expect(Math.abs(f[G] / g - 1), String(s)).toBeLessThan(1e-15);
+        expect(Math.abs(f[H] / (sign * h) - 1), String(s)).toBeLessThan(1e-15);
+        expect(Math.abs(segmentFactor(near(sign, s)) / (sign * h) - 1)).toBeLessThan(1e-15);
+        expect(bulgeSine(near(sign, s)) / (sign * Math.sin(s))).toBe(1);
+        expect(Math.abs(gapOf(near(sign, s)) / s - 1)).toBeLessThan(1e-15);
+        expect(bulgeOf(near(sign, s))).toBe(sign * (Math.PI - gapOf(near(sign, s))));
+      }
+    }
+    // and agrees with the plain bulge where that is still exact enough (gap 0.25: t holds s to 2e-15)
+    const plain = new Float64Array(BULGE_FACTORS);
+    bulgeFactorsInto(Math.PI - 0.25, plain);
+    bulgeFactorsInto(near(1, Math.PI - (Math.PI - 0.25)), f);
+    for (const o of [G, G1, G2, H, H1, H2]) expect(Math.abs(f[o] / plain[o] - 1)).toBeLessThan(1e-13);
+  });
+
+  it('advanceBulge moves a plain bulge by dt as x + dt, takes the gap form below GAP_IN and leaves it above GAP_OUT', () => {
+    // the representation's own contract (arc.ts header): plain arithmetic away from a full circle,
+    // the gap carried exactly near one, hysteresis between GAP_IN and GAP_OUT
+    expect(advanceBulge(1.25, 0.5)).toBe(1.25 + 0.5);
+    expect(advanceBulge(-2.5, -0.25)).toBe(-2.5 - 0.25);
+    const x = advanceBulge(Math.PI - 1e-3, 1e-3 - 1e-9);
+    expect(Math.abs(x)).toBeGreaterThan(NEAR_OFFSET);
+    expect(Math.abs(gapOf(x) / 1e-9 - 1)).toBeLessThan(1e-6);
+    // (the gap, 1e-9, from pi - 1e-3 and a step: the plain bulge would hold it to 4e-7 of itself)
+    const y = advanceBulge(x, 5e-10);
+    expect(Math.abs(gapOf(y) / 5e-10 - 1)).toBeLessThan(2e-6);
+    expect(Math.abs(advanceBulge(near(-1, 1e-10), -4e-11))).toBeGreaterThan(NEAR_OFFSET);
+    // (t = -(pi - 1e-10) moved by -4e-11: nearer -pi, the gap 6e-11)
+    expect(Math.abs(gapOf(advanceBulge(near(-1, 1e-10), -4e-11)) / 6e-11 - 1)).toBeLessThan(1e-14);
+    // hysteresis: a gap between GAP_IN and GAP_OUT keeps its form
+    const between = 0.5 * (GAP_IN + GAP_OUT);
+    expect(Math.abs(advanceBulge(near(1, 0.5 * GAP_IN), 0.5 * GAP_IN - between))).toBeGreaterThan(NEAR_OFFSET);
+    expect(Math.abs(advanceBulge(Math.PI - 2 * GAP_OUT, 2 * GAP_OUT - between))).toBeLessThan(Math.PI);
+    expect(Math.abs(advanceBulge(near(1, 0.5 * GAP_IN), -2 * GAP_OUT))).toBeLessThan(Math.PI);
+    // past a full circle: NaN, never a bulge beyond pi
+    expect(advanceBulge(near(1, 1e-9), 2e-9)).toBeNaN();
+    expect(advanceBulge(Math.PI - 1e-3, 2e-3)).toBeNaN();
+    expect(coordinateOfGap(-1, 0.5)).toBe(-(Math.PI - 0.5));
+    expect(coordinateOfGap(1, 1e-8)).toBe(NEAR_OFFSET + 1e8);
+  });
+
+  it('bulgeForSegmentFactor inverts segmentFactor near a full circle to full relative precision', () => {
+    // h(t) ~ pi / (4 s^2) as s -> 0 (the closed form above): a segment factor of 1e20 is a gap of about 9e-11
+    for (const v of [1e3, 1e12, 1e20, -1e40]) {
+      const x = bulgeForSegmentFactor(v);
+      expect(Math.abs(segmentFactor(x) / v - 1), String(v)).toBeLessThan(1e-14);
+    }
+    const moderate = bulgeForSegmentFactor(0.3);
+    expect(Math.abs(moderate)).toBeLessThan(Math.PI);
+    expect(Math.abs(segmentFactor(moderate) / 0.3 - 1)).toBeLessThan(1e-14);
+  });
+
+  it('circleFactorsInto: length and segment area in chord and curvature, with their derivatives (central differences)', () => {
+    // source: an arc of curvature k on a chord c spans the central angle 2 (pi - asin(c k / 2)) on the
+    // major side, L = 2 (pi - s) / k, S = R^2 (theta - sin theta) / 2 (school geometry, no source);
+    // derivatives against central differences of those, error O(step^2)
+    const value = (c: number, k: number): [number, number] => {
+      const s = Math.asin((c * Math.abs(k)) / 2);
+      const theta = 2 * (Math.PI - s);
+      return [(2 * (Math.PI - s)) / Math.abs(k), (Math.sign(k) * (theta - Math.sin(theta))) / (2 * k * k)];
+    };
+    const f = new Float64Array(CIRCLE_FACTORS);
+    for (const [c, k] of [[0.3, 1.2], [0.05, -2.5], [1e-3, 0.7], [0.9, -1.1]]) {
+      const s = Math.asin((c * Math.abs(k)) / 2);
+      circleFactorsInto(s, Math.sign(k), c, f);
+      const [l, area] = value(c, k);
+      expect(Math.abs(f[CL] / l - 1)).toBeLessThan(1e-13);
+      expect(Math.abs(f[CS] / area - 1)).toBeLessThan(1e-12);
+      const hc = 1e-5 * c;
+      const hk = 1e-5 * Math.abs(k);
+      const d = (fn: (c: number, k: number) => number, dc: number, dk: number): number => (fn(c + dc, k + dk) - fn(c - dc, k - dk)) / 2;
+      const L = (x: number, y: number): number => value(x, y)[0];
+      const S = (x: number, y: number): number => value(x, y)[1];
+      const first = (fn: typeof L, o: 'c' | 'k'): number => (o === 'c' ? d(fn, hc, 0) / hc : d(fn, 0, hk) / hk);
+      const close = (x: number, y: number): void => expect(Math.abs(x - y)).toBeLessThan(1e-6 * (1 + Math.abs(y)));
+      close(f[CL_C], first(L, 'c'));
+      close(f[CL_K], first(L, 'k'));
+      close(f[CS_C], first(S, 'c'));
+      close(f[CS_K], first(S, 'k'));
+      // second derivatives as differences of the first ones
+      const g = new Float64Array(CIRCLE_FACTORS);
+      const diff = (o: number, dc: number, dk: number): number => {
+        const sp = Math.asin(((c + dc) * Math.abs(k + dk)) / 2);
+        circleFactorsInto(sp, Math.sign(k), c + dc, g);
+        const up = g[o];
+        const sm = Math.asin(((c - dc) * Math.abs(k - dk)) / 2);
+        circleFactorsInto(sm, Math.sign(k), c - dc, g);
+        return (up - g[o]) / 2;
+      };
+      close(f[CL_CC], diff(CL_C, hc, 0) / hc);
+      close(f[CL_CK], diff(CL_C, 0, hk) / hk);
+      close(f[CL_KK], diff(CL_K, 0, hk) / hk);
+      close(f[CS_CC], diff(CS_C, hc, 0) / hc);
+      close(f[CS_CK], diff(CS_C, 0, hk) / hk);
+      close(f[CS_KK], diff(CS_K, 0, hk) / hk);
+    }
+  });
+
+  it('advanceCurvature keeps the curvature 2 sin t / c through a change of chord and a step', () => {
+    // the gap form's curvature step (arc.ts): the new gap is asin(c' k' / 2), k' = k + dk
+    const x = NEAR_OFFSET + 1 / 1e-7;
+    const c = 2e-7;
+    const k = (2 * Math.sin(1e-7)) / c;
+    const y = advanceCurvature(x, c, 1.5 * c, 0.25);
+    expect(Math.abs((2 * bulgeSine(y)) / (1.5 * c) / (k + 0.25) - 1)).toBeLessThan(1e-15);
+    expect(advanceCurvature(x, c, c, -2 * k)).toBeNaN();
   });
 });

@@ -3,8 +3,9 @@ import { enumerateClusters } from '../../src/maps/cluster.ts';
 import { problemOf, withTensions } from '../../src/solver/problem.ts';
 import {
   AREA_BLOCK, HESSIAN_BLOCK, M_TT, M_XT, M_XX, M_XY, M_YT, M_YY, Q_AX, Q_AY, Q_BX, Q_BY, Q_T, W_LT, W_LX, W_LY, W_Q,
-  WALL_STRIDE, W_C, W_G, W_LTT, areaGradientInto, perimeterInto, wallHessianInto,
+  WALL_STRIDE, W_C, W_FORM, W_G, W_LTT, areaGradientInto, perimeterInto, wallHessianInto,
 } from '../../src/solver/wall-terms.ts';
+import { NEAR_OFFSET } from '../../src/arcs/arc.ts';
 import { ARC_ARGS, ARC_HESSIAN, arcLengthInto, arcSegmentAreaInto } from '../arcs/reference.ts';
 
 let seed = 777;
@@ -116,5 +117,80 @@ describe('wall-terms', () => {
     // unit tensions are the unweighted problem itself (no copy, no multiplication)
     const p = problemOf([...enumerateClusters(3)][0].map);
     expect(withTensions(p, new Float64Array(p.walls).fill(1))).toBe(p);
+  });
+});
+
+describe('wall-terms near a full circle', () => {
+  it('a wall in the gap form: its record and wallHessianInto give the derivatives of L, Q and phi in (a, b, curvature)', () => {
+    // reference: the arc of chord c and signed curvature k on its major side, gap s = asin(c |k| / 2),
+    // L = 2 (pi - s) / |k|, segment S = sign(k) (theta - sin theta) / (2 k^2) with theta = 2 (pi - s)
+    // (school geometry, no source), Q = (a x b)/2 - S, differentiated here by central differences
+    const p = theta;
+    const t0 = 2 * p.junctions;
+    const a = 2 * p.starts[0];
+    const b = 2 * p.ends[0];
+    const z = new Float64Array(p.size);
+    const cache = new Float64Array(p.walls * WALL_STRIDE);
+    const areas = new Float64Array(p.cells);
+    const m = new Float64Array(HESSIAN_BLOCK);
+    const lengthAndSegment = (v: number[]): [number, number] => {
+      const [ax, ay, bx, by, k] = v;
+      const c = Math.hypot(bx - ax, by - ay);
+      const s = Math.asin((c * Math.abs(k)) / 2);
+      const angle = 2 * (Math.PI - s);
+      return [(2 * (Math.PI - s)) / Math.abs(k), (Math.sign(k) * (angle - Math.sin(angle))) / (2 * k * k)];
+    };
+    for (let trial = 0; trial < 40; trial++) {
+      for (let i = 0; i < p.size; i++) z[i] = 2 * random() - 1;
+      const gap = 0.05 + 0.25 * random();
+      const sign = trial % 2 === 0 ? 1 : -1;
+      z[t0] = sign * (NEAR_OFFSET + 1 / gap);
+      const jump = 3 * (random() - 0.5);
+      const c = Math.hypot(z[b] - z[a], z[b + 1] - z[a + 1]);
+      const v = [z[a], z[a + 1], z[b], z[b + 1], (sign * 2 * Math.sin(gap)) / c];
+      perimeterInto(p, z, cache, areas);
+      expect(cache[W_FORM]).toBe(1);
+      const L = (u: number[]): number => lengthAndSegment(u)[0];
+      const Q = (u: number[]): number => 0.5 * (u[0] * u[3] - u[1] * u[2]) - lengthAndSegment(u)[1];
+      const phi = (u: number[]): number => L(u) - jump * Q(u);
+      // (steps relative to each variable's scale: the curvature's is its own size)
+      const scales = v.map((x, i) => (i === 4 ? Math.abs(x) : 1 + Math.abs(x)));
+      const steps = scales.map((x) => 1e-5 * x);
+      const moved = (i: number, d: number, j = -1, e = 0): number[] => v.map((x, l) => x + (l === i ? d : 0) + (l === j ? e : 0));
+      const grad = (fn: (u: number[]) => number, i: number): number => (fn(moved(i, steps[i])) - fn(moved(i, -steps[i]))) / (2 * steps[i]);
+      const close = (x: number, y: number, tol: number): void => expect(Math.abs(x - y)).toBeLessThan(tol * (1 + Math.abs(y)));
+      close(cache[W_LX], grad(L, 2), 1e-7);
+      close(cache[W_LY], grad(L, 3), 1e-7);
+      close(cache[W_LT], grad(L, 4), 1e-7);
+      [Q_AX, Q_AY, Q_BX, Q_BY, Q_T].forEach((o, i) => close(cache[W_Q + o], grad(Q, i), 1e-7));
+      // the Hessian of phi less its cross-product term, by second differences
+      wallHessianInto(cache, 0, jump, m);
+      const second = (i: number, j: number): number => {
+        const hi = 1e-4 * scales[i];
+        const hj = 1e-4 * scales[j];
+        const f = (di: number, dj: number): number => {
+          const u = moved(i, di, j, dj);
+          if (i === j) u[i] = v[i] + di + dj;
+          return phi(u) + 0.5 * jump * (u[0] * u[3] - u[1] * u[2]);
+        };
+        return (f(hi, hj) - f(hi, -hj) - f(-hi, hj) + f(-hi, -hj)) / (4 * hi * hj);
+      };
+      const block = [
+        [m[M_XX], m[M_XY], -m[M_XX], -m[M_XY], -m[M_XT]],
+        [m[M_XY], m[M_YY], -m[M_XY], -m[M_YY], -m[M_YT]],
+        [-m[M_XX], -m[M_XY], m[M_XX], m[M_XY], m[M_XT]],
+        [-m[M_XY], -m[M_YY], m[M_XY], m[M_YY], m[M_YT]],
+        [-m[M_XT], -m[M_YT], m[M_XT], m[M_YT], m[M_TT]],
+      ];
+      for (let i = 0; i < 5; i++) {
+        for (let j = 0; j < 5; j++) {
+          // (differences of a function of size R^2 at steps of the variables' scales: judged against the
+          // geometric mean of the two diagonal entries, the scale of a mixed second difference's error)
+          const y = second(i, j);
+          const scale = 1 + Math.abs(y) + Math.sqrt(Math.abs(second(i, i) * second(j, j)));
+          expect(Math.abs(block[i][j] - y), `${i} ${j}`).toBeLessThan(1e-5 * scale);
+        }
+      }
+    }
   });
 });
