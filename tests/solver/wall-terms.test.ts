@@ -21,17 +21,32 @@ function random(): number {
 // (n = 2) whose wall 0 is used, the others left where they are
 const theta = problemOf([...enumerateClusters(2)][0].map);
 
+// wall 0 of `theta` with the state and records of its problem: the problem, the offsets of its bulge
+// and its two junctions in z, the state, the records and the cell areas
+function thetaWall() {
+  const p = theta;
+  return {
+    p, t0: 2 * p.junctions, a: 2 * p.starts[0], b: 2 * p.ends[0], z: new Float64Array(p.size),
+    cache: new Float64Array(p.walls * WALL_STRIDE), areas: new Float64Array(p.cells),
+  };
+}
+
+// The 5 x 5 Hessian in (ax, ay, bx, by, v) of a wall's block from wallHessianInto (the chord d = b - a)
+function blockOf(m: Float64Array): number[][] {
+  return [
+    [m[M_XX], m[M_XY], -m[M_XX], -m[M_XY], -m[M_XT]],
+    [m[M_XY], m[M_YY], -m[M_XY], -m[M_YY], -m[M_YT]],
+    [-m[M_XX], -m[M_XY], m[M_XX], m[M_XY], m[M_XT]],
+    [-m[M_XY], -m[M_YY], m[M_XY], m[M_YY], m[M_YT]],
+    [-m[M_XT], -m[M_YT], m[M_XT], m[M_YT], m[M_TT]],
+  ];
+}
+
 describe('wall-terms', () => {
   it('the wall records and wallHessianInto give the derivatives of L, Q and phi = L - D Q of the arc primitives', () => {
     // reference: L and the segment area S of tests/arcs/reference.ts, with their gradients and Hessians
     // in (ax, ay, bx, by, t) (checked there against central differences); Q = (a x b)/2 - S
-    const p = theta;
-    const t0 = 2 * p.junctions;
-    const a = 2 * p.starts[0];
-    const b = 2 * p.ends[0];
-    const z = new Float64Array(p.size);
-    const cache = new Float64Array(p.walls * WALL_STRIDE);
-    const areas = new Float64Array(p.cells);
+    const { p, t0, a, b, z, cache, areas } = thetaWall();
     const gL = new Float64Array(ARC_ARGS);
     const hL = new Float64Array(ARC_HESSIAN);
     const gS = new Float64Array(ARC_ARGS);
@@ -59,13 +74,7 @@ describe('wall-terms', () => {
       close(cache[W_LY], gL[3]);
       close(cache[W_LT], gL[4]);
       // the Hessian of phi less its cross-product term -D d2(a x b)/2 (left to the caller): H_L + D H_S
-      const block = [
-        [m[M_XX], m[M_XY], -m[M_XX], -m[M_XY], -m[M_XT]],
-        [m[M_XY], m[M_YY], -m[M_XY], -m[M_YY], -m[M_YT]],
-        [-m[M_XX], -m[M_XY], m[M_XX], m[M_XY], m[M_XT]],
-        [-m[M_XY], -m[M_YY], m[M_XY], m[M_YY], m[M_YT]],
-        [-m[M_XT], -m[M_YT], m[M_XT], m[M_YT], m[M_TT]],
-      ];
+      const block = blockOf(m);
       for (let i = 0; i < 5; i++) {
         for (let j = 0; j < 5; j++) close(block[i][j], hL[i * 5 + j] + jump * hS[i * 5 + j]);
       }
@@ -125,13 +134,7 @@ describe('wall-terms near a full circle', () => {
     // reference: the arc of chord c and signed curvature k on its major side, gap s = asin(c |k| / 2),
     // L = 2 (pi - s) / |k|, segment S = sign(k) (theta - sin theta) / (2 k^2) with theta = 2 (pi - s)
     // (school geometry, no source), Q = (a x b)/2 - S, differentiated here by central differences
-    const p = theta;
-    const t0 = 2 * p.junctions;
-    const a = 2 * p.starts[0];
-    const b = 2 * p.ends[0];
-    const z = new Float64Array(p.size);
-    const cache = new Float64Array(p.walls * WALL_STRIDE);
-    const areas = new Float64Array(p.cells);
+    const { p, t0, a, b, z, cache, areas } = thetaWall();
     const m = new Float64Array(HESSIAN_BLOCK);
     const lengthAndSegment = (v: number[]): [number, number] => {
       const [ax, ay, bx, by, k] = v;
@@ -175,13 +178,7 @@ describe('wall-terms near a full circle', () => {
         };
         return (f(hi, hj) - f(hi, -hj) - f(-hi, hj) + f(-hi, -hj)) / (4 * hi * hj);
       };
-      const block = [
-        [m[M_XX], m[M_XY], -m[M_XX], -m[M_XY], -m[M_XT]],
-        [m[M_XY], m[M_YY], -m[M_XY], -m[M_YY], -m[M_YT]],
-        [-m[M_XX], -m[M_XY], m[M_XX], m[M_XY], m[M_XT]],
-        [-m[M_XY], -m[M_YY], m[M_XY], m[M_YY], m[M_YT]],
-        [-m[M_XT], -m[M_YT], m[M_XT], m[M_YT], m[M_TT]],
-      ];
+      const block = blockOf(m);
       for (let i = 0; i < 5; i++) {
         for (let j = 0; j < 5; j++) {
           // (differences of a function of size R^2 at steps of the variables' scales: judged against the
