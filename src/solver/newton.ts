@@ -77,7 +77,8 @@ function settle(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: Reso
   let iterations = d.iterations;
   let end = d.end;
   perimeterInto(problem, ws.z, ws.cache, ws.areas);
-  if ((end === 'settled' && violationOf(ws.areas, ws.targets, problem.cells) > opt.tolerance) || end === 'stalled' || end === 'max-iterations') {
+  if ((end === 'settled' && (violationOf(ws.areas, ws.targets, problem.cells) > opt.tolerance || shortOfCertificate(map, problem, ws, opt))) ||
+      end === 'stalled' || end === 'max-iterations') {
     // Did the descent settle at its rounding floor with an area still off by more than the tolerance,
     // or not settle? (A cell far smaller than the rest: the merit, of the largest cells' size, no longer
     // sees its area error.) Newton's method on the equations themselves asks for the area back exactly.
@@ -199,6 +200,14 @@ function certificateAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): C
   return checkEquilibrium(map, ws.targets.subarray(0, problem.cells), {
     coords: z.subarray(0, t0), bulges: z.subarray(t0, p0), pressures: z.subarray(p0, p0 + problem.cells),
   }, problem.tensions);
+}
+
+// Whether the state ws.z, a drawing in order without crossings, misses the certificate on its residuals
+// alone: a descent settled at the rounding floor of its merit, which a cell 1e-14 of the others no
+// longer moves (Newton's method on the equations themselves still does).
+function shortOfCertificate(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): boolean {
+  const c = certificateAt(map, problem, ws);
+  return c.crossings === 0 && c.misorderedJunctions === 0 && !certificatePasses(c, opt.certificateTolerance);
 }
 
 // The verdict of a descent that ended with `end` at ws.z.
