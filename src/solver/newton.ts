@@ -31,7 +31,9 @@ import type { Equilibrium } from './result.ts';
 import { shrinkSmallCellsInto } from './small-cells.ts';
 import { type LensHost, centreLensInto, placeLensInto, slidingHostOf, slidingHostsOf } from './family.ts';
 import { stabilityOf } from './stability.ts';
-import { OK, type Verdict, collapseOf, ordersHold, relativeLengthOf, shortestWallOf, unbalancedJunctionOf } from './verdict.ts';
+import {
+  OK, type Verdict, collapseOf, ordersHold, relativeLengthOf, shortestWallOf, tangentResidualOf, unbalancedJunctionOf,
+} from './verdict.ts';
 import { type Workspace, workspaceFor } from './workspace.ts';
 import { mulberry32 } from '../random.ts';
 
@@ -204,8 +206,10 @@ function certificateAt(map: CubicMap, problem: ClusterProblem, ws: Workspace): C
 
 // Whether the state ws.z, a drawing in order without crossings, misses the certificate on its residuals
 // alone: a descent settled at the rounding floor of its merit, which a cell 1e-14 of the others no
-// longer moves (Newton's method on the equations themselves still does).
+// longer moves (Newton's method on the equations themselves still does). The junctions' law first, which
+// costs little and is what such a descent leaves undone; the certificate only then.
 function shortOfCertificate(map: CubicMap, problem: ClusterProblem, ws: Workspace, opt: ResolvedNewtonOptions): boolean {
+  if (!(tangentResidualOf(problem, ws.z) > opt.certificateTolerance)) return false;
   const c = certificateAt(map, problem, ws);
   return c.crossings === 0 && c.misorderedJunctions === 0 && !certificatePasses(c, opt.certificateTolerance);
 }
