@@ -135,6 +135,8 @@ const advance = arc.advanceBulge;
 const advanceCurvature = arc.advanceCurvature;
 const gap = arc.gapOf;
 const NEAR = arc.NEAR_OFFSET;
+// The largest plain bulge that advanceBulge leaves plain.
+const PLAIN = Math.PI - arc.GAP_IN;
 const circleInto = arc.circleFactorsInto;
 const CIRCLE = new Float64Array(arc.CIRCLE_FACTORS);
 
@@ -231,7 +233,9 @@ export function advanceInto(
     const x = z[t0 + k];
     const step = alpha * d[o + t0 + k];
     if (!(Math.abs(x) > NEAR)) {
-      out[t0 + k] = advance(x, step);
+      // (a plain bulge that stays plain: x + dt, as advanceBulge gives it, without the call)
+      const y = x + step;
+      out[t0 + k] = Math.abs(y) <= PLAIN ? y : advance(x, step);
       continue;
     }
     const a = 2 * starts[k];
@@ -274,7 +278,14 @@ export function advanceWall(problem: ClusterProblem, z: Float64Array, k: number,
  */
 export function gapsHold(problem: ClusterProblem, z: Float64Array, trial: Float64Array, shrink: number): boolean {
   const t0 = 2 * problem.junctions;
-  for (let i = t0, end = t0 + problem.walls; i < end; i++) if (!(gap(trial[i]) >= shrink * gap(z[i]))) return false;
+  for (let i = t0, end = t0 + problem.walls; i < end; i++) {
+    // (arc.gapOf, its plain case written out: this runs for every wall of every trial)
+    const x = Math.abs(trial[i]);
+    const w = Math.abs(z[i]);
+    const after = x > NEAR ? gap(x) : Math.PI - x;
+    const before = w > NEAR ? gap(w) : Math.PI - w;
+    if (!(after >= shrink * before)) return false;
+  }
   return true;
 }
 
