@@ -39,15 +39,15 @@ function stateOf(problem: ReturnType<typeof problemOf>, eq: Equilibrium): Float6
 
 describe('findEquilibria', () => {
   it('at equal areas n = 3..6 finds every equilibrium of the committed catalogues, each certified', () => {
-    // no equilibrium lost: the committed catalogues (one relaxation per arrangement) against the default
-    // search, matched by code, assignment and perimeter (12 written digits); every answer re-checked by
-    // the independent certificate (Plateau's laws and the Laplace-Young law, design.md §5)
+    // no equilibrium lost: the committed catalogues against the search with the starts each records
+    // (query.starts), matched by code, assignment and perimeter (12 written digits); every answer
+    // re-checked by the independent certificate (Plateau's laws and the Laplace-Young law, design.md §5)
     for (const n of [3, 4, 5, 6]) {
-      const catalogue = JSON.parse(readFileSync(new URL(`equal-${n}.json`, CATALOGUES), 'utf8')) as { entries: CatalogueEntry[] };
+      const catalogue = JSON.parse(readFileSync(new URL(`equal-${n}.json`, CATALOGUES), 'utf8')) as { query: { starts: number }; entries: CatalogueEntry[] };
       const areas = new Float64Array(n).fill(1);
       const found = new Map<string, number[]>();
       for (const c of enumerateClusters(n)) {
-        const search = findEquilibria(c.map, areas);
+        const search = findEquilibria(c.map, areas, { starts: catalogue.query.starts });
         for (const f of search.found) {
           expect(certified(c.map, areas, f.equilibrium), c.code).toBe(true);
           expect(f.reached, c.code).toBeGreaterThanOrEqual(1);
@@ -64,6 +64,19 @@ describe('findEquilibria', () => {
       }
     }
   }, 60_000);
+
+  it('with the default starts finds every equilibrium of the version 1 catalogue of four equal cells (one relaxation each)', () => {
+    // the issue's "superset of today's catalogues": tests/fixtures/catalogue-v1-equal-4.json is
+    // catalogues/equal-4.json as written before the search for every equilibrium
+    const v1 = JSON.parse(readFileSync(new URL('../fixtures/catalogue-v1-equal-4.json', import.meta.url), 'utf8')) as { entries: CatalogueEntry[] };
+    const areas = new Float64Array(4).fill(1);
+    const wanted = v1.entries.filter((e) => e.status === 'ok');
+    expect(wanted.length).toBeGreaterThan(0);
+    for (const e of wanted) {
+      const search = findEquilibria(clusterFromCode(e.code).map, areas);
+      expect(search.found.some((f) => Math.abs(f.equilibrium.perimeter - (e.perimeter as number)) <= 1e-10 * (e.perimeter as number)), e.code).toBe(true);
+    }
+  });
 
   it('gives a lens family its range, which sliding the lens moves along at constant perimeter (3.2, 4.5)', () => {
     // a lens set in a wall between two cells slides along that wall's circle at constant perimeter and
@@ -133,19 +146,22 @@ describe('findEquilibria', () => {
       const equal = new Float64Array(n).fill(1);
       const near = Float64Array.from(equal);
       near[n - 1] = 1 + 1e-9;
-      const catalogue = JSON.parse(readFileSync(new URL(`equal-${n}.json`, CATALOGUES), 'utf8')) as { entries: CatalogueEntry[] };
-      for (const code of catalogue.entries.filter((x) => x.status === 'ok').map((x) => x.code)) {
-        const c = clusterFromCode(code);
-        const e = relax(c.map, equal);
-        expect(e.status, code).toBe('ok');
-        const search = findEquilibria(c.map, near);
-        expect(search.found.length, c.code).toBeGreaterThan(0);
-        const moved = search.found[0].equilibrium;
-        expect(certified(c.map, near, moved), c.code).toBe(true);
+      const catalogue = JSON.parse(readFileSync(new URL(`equal-${n}.json`, CATALOGUES), 'utf8')) as { query: { starts: number }; entries: CatalogueEntry[] };
+      // the search the catalogue records (its starts), at equal areas and at the nearly equal ones
+      const options = { starts: catalogue.query.starts };
+      for (const entry of catalogue.entries.filter((x) => x.status === 'ok')) {
+        const c = clusterFromCode(entry.code);
+        const at = (found: ReturnType<typeof findEquilibria>['found'], p: number) =>
+          found.map((f) => f.equilibrium).reduce<Equilibrium | null>((best, q) => (best === null || Math.abs(q.perimeter - p) < Math.abs(best.perimeter - p) ? q : best), null);
+        const e = at(findEquilibria(c.map, equal, options).found, entry.perimeter as number);
+        expect(e !== null && Math.abs(e.perimeter - (entry.perimeter as number)) <= 1e-10 * e.perimeter, entry.code).toBe(true);
+        const moved = at(findEquilibria(c.map, near, options).found, e!.perimeter + e!.pressures[n - 1] * 1e-9);
+        expect(moved, entry.code).not.toBeNull();
+        expect(certified(c.map, near, moved!), entry.code).toBe(true);
         // (each perimeter is exact to about n 1e-11: the areas are met to 1e-12 of themselves, and the
         // perimeter moves by a pressure, about 1.5, per unit of area; the change itself is 1.4e-9)
-        const error = moved.perimeter - e.perimeter - e.pressures[n - 1] * 1e-9;
-        expect(Math.abs(error), c.code).toBeLessThan(n * 1e-11);
+        const error = moved!.perimeter - e!.perimeter - e!.pressures[n - 1] * 1e-9;
+        expect(Math.abs(error), entry.code).toBeLessThan(n * 1e-11);
       }
     }
   }, 60_000);
