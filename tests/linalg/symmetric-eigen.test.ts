@@ -28,18 +28,24 @@ function similarTo(lambda: number[], seed0: number): Float64Array {
   return a;
 }
 
+// The second-difference matrix of order n (2 on the diagonal, -1 beside it), row-major.
+function secondDifference(n: number): Float64Array {
+  const a = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) {
+    a[i * n + i] = 2;
+    if (i + 1 < n) {
+      a[i * n + i + 1] = -1;
+      a[(i + 1) * n + i] = -1;
+    }
+  }
+  return a;
+}
+
 describe('symmetric eigenvalues', () => {
   it('the second-difference matrix of order n has eigenvalues 2 - 2 cos(k pi / (n + 1))', () => {
     // the spectrum of the second-difference matrix (2 on the diagonal, -1 beside it) (common practice, no source)
     for (const n of [1, 2, 5, 17, 40]) {
-      const a = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) {
-        a[i * n + i] = 2;
-        if (i + 1 < n) {
-          a[i * n + i + 1] = -1;
-          a[(i + 1) * n + i] = -1;
-        }
-      }
+      const a = secondDifference(n);
       const got = eigenvalues(a, n);
       const want = Array.from({ length: n }, (_, k) => 2 - 2 * Math.cos(((k + 1) * Math.PI) / (n + 1))).sort((x, y) => x - y);
       for (let k = 0; k < n; k++) expect(Math.abs(got[k] - want[k])).toBeLessThan(1e-13);
@@ -60,14 +66,7 @@ describe('symmetric eigenvalues', () => {
   it('the Jacobi method gives the second-difference matrix its eigenpairs 2 - 2 cos(k pi / (n + 1)), sin(j k pi / (n + 1))', () => {
     // the spectrum and the eigenvectors of the second-difference matrix (2 on the diagonal, -1 beside it) (common practice, no source)
     for (const n of [1, 2, 7, 30]) {
-      const a = new Float64Array(n * n);
-      for (let i = 0; i < n; i++) {
-        a[i * n + i] = 2;
-        if (i + 1 < n) {
-          a[i * n + i + 1] = -1;
-          a[(i + 1) * n + i] = -1;
-        }
-      }
+      const a = secondDifference(n);
       const values = new Float64Array(n);
       const vectors = new Float64Array(n * n);
       expect(symmetricEigenInto(a, n, values, vectors, new Float64Array(n))).toBe(true);
