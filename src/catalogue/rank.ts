@@ -425,11 +425,15 @@ function rankEntries(entries: CatalogueEntry[]): CatalogueEntry[] {
     stableMost.set(candidateKey(e), Math.max(stableMost.get(candidateKey(e)) ?? -Infinity, p));
   }
   if (least === Infinity) least = -Infinity;
-  const floorOf = (e: CatalogueEntry) => Math.max(least, stableMost.get(candidateKey(e)) ?? -Infinity);
+  // each certified entry's place, once (the sort compares each entry many times)
+  const placed = new Map<CatalogueEntry, number>();
+  for (const e of entries) {
+    if (e.perimeter !== null) placed.set(e, rankingPerimeter(e, Math.max(least, stableMost.get(candidateKey(e)) ?? -Infinity)));
+  }
   entries.sort((a, b) => {
     if (a.perimeter !== null && b.perimeter !== null) {
-      const pa = rankingPerimeter(a, floorOf(a));
-      const pb = rankingPerimeter(b, floorOf(b));
+      const pa = placed.get(a)!;
+      const pb = placed.get(b)!;
       if (pa !== pb) return pa - pb;
       if (a.index !== b.index) return a.index! - b.index!;
     } else if (a.perimeter !== null) return -1;
